@@ -1,0 +1,40 @@
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+/** Absolute path of the checkout; every project-local path hangs off it. */
+export const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+
+function intFromEnv(name: string, fallback: number): number {
+  const raw = process.env[name];
+  if (raw === undefined || raw === '') return fallback;
+  const value = Number(raw);
+  if (!Number.isInteger(value) || value <= 0) throw new Error(`${name} must be a positive integer, got "${raw}"`);
+  return value;
+}
+
+/**
+ * Every setting the server reads from the environment, in one place, with defaults that work on a
+ * fresh machine. Read lazily (a function, not a constant) so tests can point at their own database.
+ */
+export function loadConfig() {
+  const pgPort = intFromEnv('DOUBLET_PG_PORT', 55433);
+  const dataDir = path.resolve(process.env.DOUBLET_DATA_DIR ?? path.join(projectRoot, '.data'));
+  const databaseName = process.env.DOUBLET_DB_NAME ?? 'doublet';
+  return {
+    port: intFromEnv('PORT', 3030),
+    host: process.env.HOST ?? '127.0.0.1',
+    /** When set, everything uses this server and the local cluster is never started. */
+    externalDatabaseUrl: process.env.DATABASE_URL || undefined,
+    pgPort,
+    dataDir,
+    pgDataDir: path.join(dataDir, 'postgres'),
+    databaseName,
+    sessionSecret: process.env.SESSION_SECRET ?? 'doublet-local-development-secret',
+    smtpPort: intFromEnv('DOUBLET_SMTP_PORT', 2526),
+    publicUrl: process.env.PUBLIC_URL ?? `http://127.0.0.1:${intFromEnv('PORT', 3030)}`,
+    mailFrom: process.env.MAIL_FROM ?? 'Doublet <doublet@localhost>',
+    secureCookies: process.env.SECURE_COOKIES === 'true',
+  };
+}
+
+export type Config = ReturnType<typeof loadConfig>;

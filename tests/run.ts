@@ -1,0 +1,60 @@
+import { execFileSync, spawnSync } from 'node:child_process';
+import fs from 'node:fs';
+import { build } from 'vite';
+import { projectRoot } from '../server/config';
+import { connect, disconnect } from '../server/db/connection';
+import { migrateUp } from '../server/db/migrate';
+import { createDatabaseIfMissing, dropDatabase, ensureDatabaseServer } from '../server/db/postgres';
+
+/**
+ * `npm test`: everything the suites need on a fresh machine, then every suite.
+ * Chromium from Debian (installed when missing and root), the local PostgreSQL with a database of
+ * its own for this run (dropped afterwards), the built client for the browser tests, then vitest.
+ */
+const CHROMIUM = '/usr/bin/chromium';
+
+function ensureChromium() {
+  if (fs.existsSync(CHROMIUM)) return;
+  if (process.getuid?.() !== 0) {
+    throw new Error(`${CHROMIUM} is missing: install Debian's chromium package (apt-get install chromium).`);
+  }
+  console.log('Installing Chromium from Debian packages for the browser tests…');
+  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+  execFileSync('apt-get', ['update'], { stdio: 'inherit', env });
+  execFileSync('apt-get', ['install', '-y', '--no-install-recommends', 'chromium'], { stdio: 'inherit', env });
+}
+
+async function main(): Promise<number> {
+  ensureChromium();
+  const external = process.env.DATABASE_URL;
+  const testDatabase = `doublet_test_${Date.now()}`;
+  let url: string;
+  if (external) {
+    url = external;
+  } else {
+    await ensureDatabaseServer();
+    await createDatabaseIfMissing(testDatabase);
+    url = (await ensureDatabaseServer(testDatabase));
+  }
+  const sequelize = connect(url);
+  await migrateUp(sequelize);
+  await disconnect();
+
+  await build({ configFile: `${projectRoot}/vite.config.ts`, logLevel: 'warn' });
+
+  const vitest = spawnSync(
+    `${projectRoot}/node_modules/.bin/vitest`,
+    ['run', ...process.argv.slice(2)],
+    { stdio: 'inherit', cwd: projectRoot, env: { ...process.env, DATABASE_URL: url, DOUBLET_TEST: '1' } },
+  );
+  if (!external) await dropDatabase(testDatabase);
+  return vitest.status ?? 1;
+}
+
+main().then(
+  (code) => process.exit(code),
+  (error: unknown) => {
+    console.error(error instanceof Error ? error.stack : error);
+    process.exit(1);
+  },
+);
