@@ -1,0 +1,429 @@
+import { bruteJoinAgainst, bruteSelfJoin } from './brute';
+import { minOverlap, overlapAtLeast, prefixLength, reaches, sizeBounds, type Threshold } from './threshold';
+import type { Algorithm, JoinOptions, JoinStats, SetPair } from './types';
+
+export type { Algorithm, JoinOptions, JoinStats, SetPair } from './types';
+export { ALGORITHMS, newJoinStats } from './types';
+
+/**
+ * The exact similarity join over sets of ranks (ascending in the global rarest-first order).
+ *
+ * Invariant: for every method the result equals the brute-force pairs exactly; every bound comes
+ * from threshold.ts (integer p/q arithmetic), never from a floating point comparison with t.
+ *
+ * Methods (each adds one filter to the one before):
+ * - length:   every pair whose sizes pass the length filter t·|x| ≤ |y| ≤ |x|/t;
+ * - prefix:   only pairs that share an id in their prefixes, found through an inverted index
+ *             of prefixes (one counter per indexed set, reused, with a touched list);
+ * - position: drops a candidate as soon as the ids left after a shared one cannot bring the
+ *             overlap up to the required α;
+ * - auto:     the fastest exact one (position; see server/bench/join.ts).
+ * Survivors are verified by merging the two arrays from just after the last shared prefix id,
+ * stopping as soon as α is out of reach.
+ */
+
+/** Jaccard similarity from an overlap and the two sizes, as a double (display only). 0 for two empty sets. */
+export function jaccard(overlap: number, sizeA: number, sizeB: number): number {
+  const union = sizeA + sizeB - overlap;
+  return union === 0 ? 0 : overlap / union;
+}
+
+/**
+ * Every pair a < b of `sets` with Jaccard similarity ≥ t, sorted by (a, b). Empty sets pair
+ * with nothing.
+ *
+ * @example
+ * selfJoin([Int32Array.of(0, 1, 2, 3, 4), Int32Array.of(0, 1, 2, 3, 4, 5), Int32Array.of(6)], parseThreshold('0.8'))
+ * // [{ a: 0, b: 1, overlap: 5 }]  (5/6 ≥ 0.8)
+ * @throws when a set is not ascending and duplicate-free, or holds a negative id
+ */
+export function selfJoin(sets: readonly Int32Array[], t: Threshold, options: JoinOptions = {}): SetPair[] {
+  checkSets(sets, 'set');
+  const stats = options.stats;
+  const algorithm = options.algorithm ?? 'auto';
+  let pairs: SetPair[];
+  switch (algorithm) {
+    case 'brute':
+      return bruteSelfJoin(sets, t, stats);
+    case 'length':
+      pairs = selfJoinByLength(sets, t, stats);
+      break;
+    case 'prefix':
+      pairs = selfJoinByPrefix(sets, t, false, stats);
+      break;
+    case 'position':
+    case 'auto':
+      pairs = selfJoinByPrefix(sets, t, true, stats);
+      break;
+    default:
+      throw new Error(`unknown algorithm "${String(algorithm)}"`);
+  }
+  if (stats) stats.results += pairs.length;
+  return sortPairs(pairs);
+}
+
+/**
+ * Every pair (a in probe, b in indexed) with Jaccard similarity ≥ t, sorted by (a, b): what
+ * incremental loading needs (new sets against the collection already indexed). Both sides must
+ * be ranked in the same global order.
+ *
+ * @example
+ * joinAgainst([Int32Array.of(0, 1, 2, 3)], [Int32Array.of(5), Int32Array.of(0, 1, 2, 3, 4)], parseThreshold('0.8'))
+ * // [{ a: 0, b: 1, overlap: 4 }]
+ * @throws when a set is not ascending and duplicate-free, or holds a negative id
+ */
+export function joinAgainst(
+  probe: readonly Int32Array[],
+  indexed: readonly Int32Array[],
+  t: Threshold,
+  options: JoinOptions = {},
+): SetPair[] {
+  checkSets(probe, 'probe set');
+  checkSets(indexed, 'indexed set');
+  const stats = options.stats;
+  const algorithm = options.algorithm ?? 'auto';
+  let pairs: SetPair[];
+  switch (algorithm) {
+    case 'brute':
+      return bruteJoinAgainst(probe, indexed, t, stats);
+    case 'length':
+      pairs = joinAgainstByLength(probe, indexed, t, stats);
+      break;
+    case 'prefix':
+      pairs = joinAgainstByPrefix(probe, indexed, t, false, stats);
+      break;
+    case 'position':
+    case 'auto':
+      pairs = joinAgainstByPrefix(probe, indexed, t, true, stats);
+      break;
+    default:
+      throw new Error(`unknown algorithm "${String(algorithm)}"`);
+  }
+  if (stats) stats.results += pairs.length;
+  return sortPairs(pairs);
+}
+
+/** Largest id over all sets (−1 when there is none), after checking each set's shape. */
+function checkSets(sets: readonly Int32Array[], what: string): number {
+  let max = -1;
+  for (let s = 0; s < sets.length; s++) {
+    const set = sets[s];
+    if (!(set instanceof Int32Array)) throw new Error(`${what} ${s} is not an Int32Array`);
+    if (set.length > 0 && set[0] < 0) throw new Error(`${what} ${s} holds a negative id (${set[0]})`);
+    for (let i = 1; i < set.length; i++) {
+      if (set[i] <= set[i - 1]) {
+        throw new Error(`${what} ${s} is not ascending and duplicate-free at position ${i} (${set[i - 1]}, ${set[i]})`);
+      }
+    }
+    if (set.length > 0 && set[set.length - 1] > max) max = set[set.length - 1];
+  }
+  return max;
+}
+
+function sortPairs(pairs: SetPair[]): SetPair[] {
+  return pairs.sort((x, y) => x.a - y.a || x.b - y.b);
+}
+
+/**
+ * Indexes of the non-empty sets, ordered by size (counting sort, so equal sizes keep index
+ * order). Empty sets are dropped: they pair with nothing.
+ */
+function bySize(sets: readonly Int32Array[]): Int32Array {
+  let maxSize = 0;
+  let nonEmpty = 0;
+  for (const set of sets) {
+    if (set.length > maxSize) maxSize = set.length;
+    if (set.length > 0) nonEmpty++;
+  }
+  const start = new Int32Array(maxSize + 2);
+  for (const set of sets) if (set.length > 0) start[set.length + 1]++;
+  for (let s = 1; s < start.length; s++) start[s] += start[s - 1];
+  const order = new Int32Array(nonEmpty);
+  for (let i = 0; i < sets.length; i++) if (sets[i].length > 0) order[start[sets[i].length]++] = i;
+  return order;
+}
+
+/** A pair in input numbering, a < b. */
+function selfPair(u: number, v: number, overlap: number): SetPair {
+  return u < v ? { a: u, b: v, overlap } : { a: v, b: u, overlap };
+}
+
+function selfJoinByLength(sets: readonly Int32Array[], t: Threshold, stats?: JoinStats): SetPair[] {
+  const order = bySize(sets);
+  const pairs: SetPair[] = [];
+  let candidates = 0;
+  let first = 0; // first processed set whose size reaches the current lower bound (monotone)
+  for (let k = 0; k < order.length; k++) {
+    const x = sets[order[k]];
+    const lower = sizeBounds(t, x.length)[0];
+    while (sets[order[first]].length < lower) first++;
+    for (let m = first; m < k; m++) {
+      const y = sets[order[m]];
+      candidates++;
+      const overlap = overlapAtLeast(x, y, minOverlap(t, x.length, y.length));
+      if (overlap >= 0 && reaches(t, x.length, y.length, overlap)) pairs.push(selfPair(order[k], order[m], overlap));
+    }
+  }
+  if (stats) {
+    stats.candidates += candidates;
+    stats.verified += candidates;
+  }
+  return pairs;
+}
+
+/**
+ * The inverted index of prefixes in compressed rows: entries of id w are
+ * [listStart[w], listStart[w+1]), each with the set (in size order), its size and the position
+ * of w in the set. Entries are appended in size order, so each list is sorted by size.
+ */
+interface PrefixIndex {
+  listStart: Int32Array;
+  entrySet: Int32Array;
+  entrySize: Int32Array;
+  entryPosition: Int32Array;
+}
+
+function buildPrefixIndex(
+  sets: readonly Int32Array[],
+  order: Int32Array,
+  prefixOf: (size: number) => number,
+  vocabulary: number,
+): PrefixIndex {
+  const listStart = new Int32Array(vocabulary + 1);
+  let total = 0;
+  for (let k = 0; k < order.length; k++) {
+    const set = sets[order[k]];
+    const prefix = prefixOf(set.length);
+    total += prefix;
+    for (let i = 0; i < prefix; i++) listStart[set[i] + 1]++;
+  }
+  for (let w = 1; w <= vocabulary; w++) listStart[w] += listStart[w - 1];
+  const fill = listStart.slice(0, vocabulary);
+  const entrySet = new Int32Array(total);
+  const entrySize = new Int32Array(total);
+  const entryPosition = new Int32Array(total);
+  for (let k = 0; k < order.length; k++) {
+    const set = sets[order[k]];
+    const prefix = prefixOf(set.length);
+    for (let i = 0; i < prefix; i++) {
+      const e = fill[set[i]]++;
+      entrySet[e] = k;
+      entrySize[e] = set.length;
+      entryPosition[e] = i;
+    }
+  }
+  return { listStart, entrySet, entrySize, entryPosition };
+}
+
+/**
+ * Per-candidate state in typed arrays indexed by the indexed set's number, reset through the
+ * touched list after each probe: no object per candidate. count −1 marks a candidate the
+ * position filter dropped (it must not come back when a later prefix id matches).
+ */
+interface Candidates {
+  count: Int32Array;
+  lastX: Int32Array;
+  lastY: Int32Array;
+  touched: Int32Array;
+}
+
+function newCandidates(size: number): Candidates {
+  return {
+    count: new Int32Array(size),
+    lastX: new Int32Array(size),
+    lastY: new Int32Array(size),
+    touched: new Int32Array(size),
+  };
+}
+
+/**
+ * Self-join in size order (AllPairs/PPJoin style). Sets are indexed with the short indexing
+ * prefix |y| − α(y, y) + 1: it is enough because every later partner x has |x| ≥ |y|, so the
+ * required overlap α(x, y) ≥ α(y, y). The probe uses the full probing prefix of x. The list
+ * entries of sets not yet processed sit at the end of each list (appended in size order), so the
+ * scan stops at the first one.
+ */
+function selfJoinByPrefix(sets: readonly Int32Array[], t: Threshold, usePosition: boolean, stats?: JoinStats): SetPair[] {
+  const order = bySize(sets);
+  let vocabulary = 0;
+  for (const set of sets) if (set.length > 0 && set[set.length - 1] + 1 > vocabulary) vocabulary = set[set.length - 1] + 1;
+  const index = buildPrefixIndex(sets, order, (size) => size - minOverlap(t, size, size) + 1, vocabulary);
+  const { listStart, entrySet, entrySize, entryPosition } = index;
+  // Sizes only grow along the processing order, so the lower size bound does too: each list's
+  // too-small head is skipped once and for all by moving its start.
+  const listHead = listStart.slice(0, vocabulary);
+  const { count, lastX, lastY, touched } = newCandidates(order.length);
+  const pairs: SetPair[] = [];
+  let candidates = 0;
+  let verified = 0;
+
+  for (let k = 0; k < order.length; k++) {
+    const x = sets[order[k]];
+    const sizeX = x.length;
+    const lower = sizeBounds(t, sizeX)[0];
+    const probe = prefixLength(t, sizeX);
+    let touchedCount = 0;
+    for (let i = 0; i < probe; i++) {
+      const w = x[i];
+      if (w >= vocabulary) continue;
+      const end = listStart[w + 1];
+      let e = listHead[w];
+      while (e < end && entrySize[e] < lower) e++;
+      listHead[w] = e;
+      for (; e < end; e++) {
+        const y = entrySet[e];
+        if (y >= k) break;
+        const c = count[y];
+        if (c < 0) continue;
+        if (c === 0) touched[touchedCount++] = y;
+        const j = entryPosition[e];
+        if (usePosition) {
+          const sizeY = entrySize[e];
+          const restX = sizeX - i - 1;
+          const restY = sizeY - j - 1;
+          if (c + 1 + (restX < restY ? restX : restY) < minOverlap(t, sizeX, sizeY)) {
+            count[y] = -1;
+            continue;
+          }
+        }
+        count[y] = c + 1;
+        lastX[y] = i;
+        lastY[y] = j;
+      }
+    }
+    candidates += touchedCount;
+    for (let n = 0; n < touchedCount; n++) {
+      const m = touched[n];
+      const c = count[m];
+      count[m] = 0;
+      if (c < 0) continue;
+      verified++;
+      const y = sets[order[m]];
+      const overlap = overlapAtLeast(x, y, minOverlap(t, sizeX, y.length), lastX[m] + 1, lastY[m] + 1, c);
+      if (overlap >= 0 && reaches(t, sizeX, y.length, overlap)) pairs.push(selfPair(order[k], order[m], overlap));
+    }
+  }
+  if (stats) {
+    stats.candidates += candidates;
+    stats.verified += verified;
+  }
+  return pairs;
+}
+
+/** First entry in [from, to) of a size-sorted run whose size is ≥ lower. */
+function firstAtLeast(sizes: Int32Array, from: number, to: number, lower: number): number {
+  let lo = from;
+  let hi = to;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (sizes[mid] < lower) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+function joinAgainstByLength(
+  probe: readonly Int32Array[],
+  indexed: readonly Int32Array[],
+  t: Threshold,
+  stats?: JoinStats,
+): SetPair[] {
+  const order = bySize(indexed);
+  const sizes = new Int32Array(order.length);
+  for (let m = 0; m < order.length; m++) sizes[m] = indexed[order[m]].length;
+  const pairs: SetPair[] = [];
+  let candidates = 0;
+  for (let a = 0; a < probe.length; a++) {
+    const x = probe[a];
+    if (x.length === 0) continue;
+    const [lower, upper] = sizeBounds(t, x.length);
+    for (let m = firstAtLeast(sizes, 0, sizes.length, lower); m < sizes.length && sizes[m] <= upper; m++) {
+      const y = indexed[order[m]];
+      candidates++;
+      const overlap = overlapAtLeast(x, y, minOverlap(t, x.length, y.length));
+      if (overlap >= 0 && reaches(t, x.length, y.length, overlap)) pairs.push({ a, b: order[m], overlap });
+    }
+  }
+  if (stats) {
+    stats.candidates += candidates;
+    stats.verified += candidates;
+  }
+  return pairs;
+}
+
+/**
+ * Probe sets against an index of the other collection. The indexed sets arrive in any size
+ * order relative to the probes, so they are indexed with the full probing prefix (the short
+ * self-join prefix would need the probe to be the larger set).
+ */
+function joinAgainstByPrefix(
+  probe: readonly Int32Array[],
+  indexed: readonly Int32Array[],
+  t: Threshold,
+  usePosition: boolean,
+  stats?: JoinStats,
+): SetPair[] {
+  const order = bySize(indexed);
+  let vocabulary = 0;
+  for (const set of indexed) if (set.length > 0 && set[set.length - 1] + 1 > vocabulary) vocabulary = set[set.length - 1] + 1;
+  const { listStart, entrySet, entrySize, entryPosition } = buildPrefixIndex(
+    indexed,
+    order,
+    (size) => prefixLength(t, size),
+    vocabulary,
+  );
+  const { count, lastX, lastY, touched } = newCandidates(order.length);
+  const pairs: SetPair[] = [];
+  let candidates = 0;
+  let verified = 0;
+
+  for (let a = 0; a < probe.length; a++) {
+    const x = probe[a];
+    const sizeX = x.length;
+    if (sizeX === 0) continue;
+    const [lower, upper] = sizeBounds(t, sizeX);
+    const prefix = prefixLength(t, sizeX);
+    let touchedCount = 0;
+    for (let i = 0; i < prefix; i++) {
+      const w = x[i];
+      if (w >= vocabulary) continue;
+      const end = listStart[w + 1];
+      for (let e = firstAtLeast(entrySize, listStart[w], end, lower); e < end; e++) {
+        const sizeY = entrySize[e];
+        if (sizeY > upper) break;
+        const y = entrySet[e];
+        const c = count[y];
+        if (c < 0) continue;
+        if (c === 0) touched[touchedCount++] = y;
+        const j = entryPosition[e];
+        if (usePosition) {
+          const restX = sizeX - i - 1;
+          const restY = sizeY - j - 1;
+          if (c + 1 + (restX < restY ? restX : restY) < minOverlap(t, sizeX, sizeY)) {
+            count[y] = -1;
+            continue;
+          }
+        }
+        count[y] = c + 1;
+        lastX[y] = i;
+        lastY[y] = j;
+      }
+    }
+    candidates += touchedCount;
+    for (let n = 0; n < touchedCount; n++) {
+      const m = touched[n];
+      const c = count[m];
+      count[m] = 0;
+      if (c < 0) continue;
+      verified++;
+      const y = indexed[order[m]];
+      const overlap = overlapAtLeast(x, y, minOverlap(t, sizeX, y.length), lastX[m] + 1, lastY[m] + 1, c);
+      if (overlap >= 0 && reaches(t, sizeX, y.length, overlap)) pairs.push({ a, b: order[m], overlap });
+    }
+  }
+  if (stats) {
+    stats.candidates += candidates;
+    stats.verified += verified;
+  }
+  return pairs;
+}

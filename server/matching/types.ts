@@ -1,0 +1,43 @@
+/** Types shared by the join, the oracle and their callers. */
+
+/** The join methods, from the oracle to the fastest; all return the same pairs. */
+export type Algorithm = 'brute' | 'length' | 'prefix' | 'position' | 'auto';
+
+/** Every method, in order of increasing filtering (for `--algorithm` and the benchmark). */
+export const ALGORITHMS: readonly Algorithm[] = ['brute', 'length', 'prefix', 'position', 'auto'];
+
+/**
+ * A pair of sets that reaches the threshold. Self-join: a < b, both index the input. joinAgainst:
+ * a indexes the probe sets, b the indexed sets. `overlap` is |A ∩ B| (exact).
+ */
+export interface SetPair {
+  a: number;
+  b: number;
+  overlap: number;
+}
+
+/**
+ * What a join did, for the command line and the benchmark. The join ADDS to these counters, so
+ * one object can sum several batches.
+ */
+export interface JoinStats {
+  /** Distinct set pairs the method looked at (brute: every pair; length: every pair in the size window). */
+  candidates: number;
+  /** Pairs whose overlap was computed by merging (after every filter). */
+  verified: number;
+  /** Pairs at or above the threshold. */
+  results: number;
+}
+
+/** Options of `selfJoin` and `joinAgainst`. */
+export interface JoinOptions {
+  /** Default 'auto' (the fastest exact method). */
+  algorithm?: Algorithm;
+  /** Counters to add this join's figures to. */
+  stats?: JoinStats;
+}
+
+/** Zeroed counters. */
+export function newJoinStats(): JoinStats {
+  return { candidates: 0, verified: 0, results: 0 };
+}
