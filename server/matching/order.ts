@@ -118,12 +118,13 @@ function rankDense(dense: Int32Array[], vocabulary: number) {
   }
   let maxFrequency = 0;
   for (let id = 0; id < vocabulary; id++) if (frequency[id] > maxFrequency) maxFrequency = frequency[id];
+  // Counting sort by frequency (stable: ties keep id order). Ids in no set (frequency 0) get no
+  // rank, so the ranks of the tokens in use are exactly 0..used−1.
   const bucketStart = new Int32Array(maxFrequency + 2);
-  for (let id = 0; id < vocabulary; id++) bucketStart[frequency[id] + 1]++;
+  for (let id = 0; id < vocabulary; id++) if (frequency[id] > 0) bucketStart[frequency[id] + 1]++;
   for (let f = 1; f < bucketStart.length; f++) bucketStart[f] += bucketStart[f - 1];
-  const rankOf = new Int32Array(vocabulary);
-  for (let id = 0; id < vocabulary; id++) rankOf[id] = bucketStart[frequency[id]]++;
-  // Unused ids (frequency 0) take the lowest ranks; they appear in no set, so nothing changes.
+  const rankOf = new Int32Array(vocabulary).fill(-1);
+  for (let id = 0; id < vocabulary; id++) if (frequency[id] > 0) rankOf[id] = bucketStart[frequency[id]]++;
 
   const ranked: Int32Array[] = new Array(dense.length);
   for (let s = 0; s < dense.length; s++) {
