@@ -1,23 +1,36 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import express, { type ErrorRequestHandler } from 'express';
+import { passport } from './auth/passport';
+import { createSessionMiddleware } from './auth/session';
 import { projectRoot } from './config';
+import { db } from './db/connection';
 import { HttpError } from './errors';
+import { initModels } from './models';
+import { buildApiRouter, type ApiRouterOptions } from './routes';
+
+/** Options of createApp (tests lower limits; production uses the defaults). */
+export type AppOptions = ApiRouterOptions;
 
 /**
- * The Express app, importable by tests (no listen here). Serves the API under /api and, when the
- * client has been built, the client from dist/web with a fallback to index.html for client routes.
+ * The Express app, importable by tests (no listen here). Needs a connected database (`connect()`
+ * or `openDatabase()` first): sessions live in PostgreSQL. Serves the API under /api (sessions,
+ * passport, CSRF, guarded routes) and, when the client has been built, the client from dist/web
+ * with a fallback to index.html for client routes.
  */
-export function createApp() {
+export function createApp(options: AppOptions = {}) {
+  const sequelize = db();
+  initModels(sequelize);
+
   const app = express();
   app.disable('x-powered-by');
   app.use(express.json({ limit: '2mb' }));
 
   const api = express.Router();
-  api.get('/health', (_req, res) => {
-    res.json({ ok: true });
-  });
-  api.use((req, _res, next) => next(new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}.`)));
+  api.use(createSessionMiddleware(sequelize));
+  api.use(passport.initialize());
+  api.use(passport.session());
+  api.use(buildApiRouter(options));
   app.use('/api', api);
 
   const clientDir = path.join(projectRoot, 'dist', 'web');

@@ -1,11 +1,18 @@
 import { build } from 'vite';
+import { demoSignInLines, seedDemo } from './commands/seedDemo';
 import { projectRoot } from './config';
 import { openDatabase } from './db';
 import { serve } from './index';
+import { initModels } from './models';
 
 /** `npm start`: database up and migrated, demo data on an empty database, client built, then serve. */
 async function main() {
-  await openDatabase();
+  const sequelize = await openDatabase();
+  initModels(sequelize);
+  const seeded = await seedDemo();
+  if (seeded) console.log(`Seeded the demo organisation "${seeded.name}". Demo sign-ins (role, e-mail, password):`);
+  else console.log('Demo sign-ins, if the demo organisation is still there (role, e-mail, password):');
+  for (const line of demoSignInLines()) console.log(line);
   console.log('Building the client…');
   await build({ configFile: `${projectRoot}/vite.config.ts`, logLevel: 'warn' });
   await serve();

@@ -1,0 +1,76 @@
+import connectPgSimple from 'connect-pg-simple';
+import session from 'express-session';
+import type { Sequelize } from 'sequelize';
+import { loadConfig } from '../config';
+import './types';
+
+/** Name of the session cookie. */
+export const SESSION_COOKIE = 'doublet.sid';
+
+/** Name of the table created by migration 0004. */
+export const SESSION_TABLE = 'sessions';
+
+const MAX_AGE_MS = 12 * 60 * 60 * 1000;
+
+/**
+ * A pg-Pool-shaped adapter over Sequelize's own connections, so the session store shares the
+ * application's pool (and closes with it) instead of opening a second one.
+ */
+function poolOf(sequelize: Sequelize) {
+  const manager = sequelize.connectionManager as unknown as {
+    getConnection(options: { type: 'write' }): Promise<{ query(text: string, params?: unknown[]): Promise<unknown> }>;
+    releaseConnection(connection: unknown): Promise<void> | void;
+  };
+  return {
+    async query(text: string, params?: unknown[]) {
+      const connection = await manager.getConnection({ type: 'write' });
+      try {
+        return await connection.query(text, params);
+      } finally {
+        await manager.releaseConnection(connection);
+      }
+    },
+  };
+}
+
+/**
+ * express-session with sessions in PostgreSQL (connect-pg-simple, table from a migration) and an
+ * httpOnly, SameSite=Lax cookie. Lax (not Strict) so a link from a mail to a page still arrives
+ * signed in; cross-site POSTs carry no cookie, and the CSRF token guards the rest.
+ */
+export function createSessionMiddleware(sequelize: Sequelize) {
+  const config = loadConfig();
+  const PgStore = connectPgSimple(session);
+  const store = new PgStore({
+    pool: poolOf(sequelize) as never,
+    tableName: SESSION_TABLE,
+    createTableIfMissing: false,
+    // Expired rows are deleted every 15 minutes; the timer is unref'd by the store.
+    pruneSessionInterval: 15 * 60,
+  });
+  return session({
+    name: SESSION_COOKIE,
+    secret: config.sessionSecret,
+    store,
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    cookie: { httpOnly: true, sameSite: 'lax', secure: config.secureCookies, maxAge: MAX_AGE_MS, path: '/' },
+  });
+}
+
+/**
+ * Ends every stored session of a user (deactivation, password change elsewhere). Pass the id of a
+ * session to keep, such as the one that changed the password.
+ */
+export async function endSessionsOf(
+  sequelize: Sequelize,
+  userId: string,
+  options: { except?: string } = {},
+): Promise<number> {
+  const [, meta] = await sequelize.query(
+    `delete from ${SESSION_TABLE} where sess -> 'passport' ->> 'user' = $1 and sid <> $2`,
+    { bind: [userId, options.except ?? ''] },
+  );
+  return (meta as { rowCount?: number } | undefined)?.rowCount ?? 0;
+}

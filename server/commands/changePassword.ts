@@ -1,0 +1,27 @@
+import type { Transaction } from 'sequelize';
+import { hashPassword, verifyPassword } from '../auth/passwords';
+import { endSessionsOf } from '../auth/session';
+import { db } from '../db/connection';
+import { ValidationError } from '../errors';
+import type { User } from '../models/User';
+
+/**
+ * Changes a user's own password after checking the current one, and ends their other sessions
+ * (a changed password should lock out whoever else was signed in); `keepSessionId` survives.
+ */
+export async function changePassword(input: {
+  user: User;
+  currentPassword: string;
+  newPassword: string;
+  keepSessionId?: string;
+  transaction?: Transaction;
+}): Promise<User> {
+  const { user, transaction } = input;
+  if (!(await verifyPassword(input.currentPassword, user.passwordHash))) {
+    throw new ValidationError('The current password is wrong.', 'currentPassword');
+  }
+  user.passwordHash = await hashPassword(input.newPassword);
+  await user.save({ transaction });
+  await endSessionsOf(db(), user.id, { except: input.keepSessionId });
+  return user;
+}

@@ -1,0 +1,78 @@
+import { Op, type Transaction } from 'sequelize';
+import type { InviteUserInput } from '../../shared/api/invitations';
+import { ROLE_LABELS } from '../../shared/roles';
+import { hashToken, oneTimeToken } from '../auth/tokens';
+import { loadConfig } from '../config';
+import { db } from '../db/connection';
+import { ConflictError } from '../errors';
+import { invitationMail, sendMail } from '../mail';
+import { Invitation } from '../models/Invitation';
+import { Organisation } from '../models/Organisation';
+import { User } from '../models/User';
+
+/** How long an invitation link works. */
+export const INVITATION_TTL_MS = 7 * 24 * 60 * 60 * 1000;
+
+/** The client route that opens an invitation link. */
+export function invitationLink(token: string): string {
+  return `${loadConfig().publicUrl.replace(/\/$/, '')}/invitations/${token}`;
+}
+
+/**
+ * Invites someone to the actor's organisation: stores the invitation (only the token's hash),
+ * retires earlier pending invitations to the same address, and mails the one-time link. The mail
+ * goes out after the write commits, so a failed write never sends a link that does not work.
+ */
+export async function inviteUser(input: {
+  actor: User;
+  invitee: InviteUserInput;
+  transaction?: Transaction;
+}): Promise<Invitation> {
+  const { actor, invitee } = input;
+  const token = oneTimeToken();
+  const now = new Date();
+
+  const write = async (transaction: Transaction) => {
+    if (await User.findOne({ where: { email: invitee.email }, transaction })) {
+      throw new ConflictError('Someone with this e-mail address already has an account.', 'email');
+    }
+    await Invitation.update(
+      { expiresAt: now },
+      {
+        where: { organisationId: actor.organisationId, email: invitee.email, acceptedAt: null, expiresAt: { [Op.gt]: now } },
+        transaction,
+      },
+    );
+    const invitation = await Invitation.create(
+      {
+        organisationId: actor.organisationId,
+        invitedById: actor.id,
+        email: invitee.email,
+        name: invitee.name,
+        role: invitee.role,
+        tokenHash: hashToken(token),
+        expiresAt: new Date(now.getTime() + INVITATION_TTL_MS),
+      },
+      { transaction },
+    );
+    const organisation = await Organisation.findByPk(actor.organisationId, { transaction, rejectOnEmpty: true });
+    return { invitation, organisation };
+  };
+
+  const { invitation, organisation } = input.transaction
+    ? await write(input.transaction)
+    : await db().transaction(write);
+
+  await sendMail(
+    invitationMail({
+      to: invitation.email,
+      inviteeName: invitation.name,
+      inviterName: actor.name,
+      organisationName: organisation.name,
+      roleLabel: ROLE_LABELS[invitation.role],
+      link: invitationLink(token),
+      expiresAt: invitation.expiresAt,
+    }),
+  );
+  return invitation;
+}

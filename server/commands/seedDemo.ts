@@ -1,0 +1,65 @@
+import type { Transaction } from 'sequelize';
+import type { Role } from '../../shared/roles';
+import { hashPassword } from '../auth/passwords';
+import { db } from '../db/connection';
+import { Organisation } from '../models/Organisation';
+import { User } from '../models/User';
+
+/** The invented demo organisation: a rail-freight operator with its own codebases. */
+export const DEMO_ORGANISATION_NAME = 'Brackenfold Rail Freight';
+
+/** One demo sign-in. */
+export interface DemoSignIn {
+  role: Role;
+  name: string;
+  email: string;
+  password: string;
+}
+
+/**
+ * One user per role, with demo passwords (printed at start-up, listed in the README). The
+ * `.example` domain is reserved for examples, so these addresses can never reach anyone.
+ */
+export const DEMO_SIGN_INS: readonly DemoSignIn[] = [
+  { role: 'admin', name: 'Ines Varga', email: 'ines.varga@brackenfold.example', password: 'brackenfold-admin' },
+  { role: 'lead', name: 'Tomasz Okafor', email: 'tomasz.okafor@brackenfold.example', password: 'brackenfold-lead' },
+  { role: 'engineer', name: 'Priya Lindqvist', email: 'priya.lindqvist@brackenfold.example', password: 'brackenfold-engineer' },
+  { role: 'viewer', name: 'Malcolm Achterberg', email: 'malcolm.achterberg@brackenfold.example', password: 'brackenfold-viewer' },
+];
+
+/** Creates the demo organisation and its users, inside the caller's transaction when given. */
+export async function createDemoOrganisation(options: { transaction?: Transaction } = {}): Promise<Organisation> {
+  const hashes = await Promise.all(DEMO_SIGN_INS.map((s) => hashPassword(s.password)));
+  const write = async (transaction: Transaction) => {
+    const organisation = await Organisation.create({ name: DEMO_ORGANISATION_NAME }, { transaction });
+    await User.bulkCreate(
+      DEMO_SIGN_INS.map((s, i) => ({
+        organisationId: organisation.id,
+        email: s.email,
+        name: s.name,
+        role: s.role,
+        passwordHash: hashes[i],
+      })),
+      { transaction },
+    );
+    return organisation;
+  };
+  return options.transaction ? write(options.transaction) : db().transaction(write);
+}
+
+/**
+ * Seeds the demo organisation when the database has no organisation at all, and returns it; on a
+ * database in use it does nothing and returns null. Safe to call at every start.
+ *
+ * @example
+ * const seeded = await seedDemo(); // Organisation on a fresh database, else null
+ */
+export async function seedDemo(options: { transaction?: Transaction } = {}): Promise<Organisation | null> {
+  if ((await Organisation.count({ transaction: options.transaction })) > 0) return null;
+  return createDemoOrganisation(options);
+}
+
+/** The demo sign-ins as console lines. */
+export function demoSignInLines(): string[] {
+  return DEMO_SIGN_INS.map((s) => `  ${s.role.padEnd(9)} ${s.email.padEnd(40)} ${s.password}`);
+}

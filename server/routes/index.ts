@@ -1,0 +1,56 @@
+import express, { type RequestHandler } from 'express';
+import { optionalUser } from '../auth/current-user';
+import { csrfProtection } from '../auth/csrf';
+import { signInRateLimit } from '../auth/rate-limit';
+import { AuthenticationError, HttpError } from '../errors';
+import { declaredRoutes, guardMiddleware, type DeclaredRoute, type NamedMiddleware, type RouteGroup } from './define';
+import { healthRoutes } from './health';
+import { invitationRoutes } from './invitations';
+import { sessionRoutes } from './session';
+import { userRoutes } from './users';
+
+/** Every resource's routes. Add new router files here; tests read this list. */
+export const ROUTE_GROUPS: RouteGroup[] = [healthRoutes, sessionRoutes, userRoutes, invitationRoutes];
+
+/** Every declared API route with its full path and guard (what the route × role tests enumerate). */
+export function registeredRoutes(): DeclaredRoute[] {
+  return declaredRoutes(ROUTE_GROUPS);
+}
+
+/** Options of the API router (tests lower the sign-in limit). */
+export interface ApiRouterOptions {
+  signInAttempts?: number;
+}
+
+/**
+ * The /api router: each declared route runs its named middleware, its guard (401/403), the CSRF
+ * check (state-changing methods only), then its handler. Anything else under /api answers 401 to
+ * anonymous callers (so unknown routes reveal nothing) and 404 to signed-in ones.
+ */
+export function buildApiRouter(options: ApiRouterOptions = {}): express.Router {
+  const router = express.Router();
+  const named: Record<NamedMiddleware, RequestHandler> = {
+    signInRateLimit: signInRateLimit({ attempts: options.signInAttempts }),
+  };
+  const csrf = csrfProtection();
+
+  for (const group of ROUTE_GROUPS) {
+    for (const route of group.routes) {
+      const path = `${group.prefix}${route.path === '/' ? '' : route.path}` || '/';
+      const handler: RequestHandler = async (req, res, next) => {
+        try {
+          await route.handler(req, res);
+        } catch (error) {
+          next(error);
+        }
+      };
+      router[route.method](path, ...(route.use ?? []).map((name) => named[name]), guardMiddleware(route.guard), csrf, handler);
+    }
+  }
+
+  router.use((req, _res, next) => {
+    if (!optionalUser(req)) return next(new AuthenticationError());
+    next(new HttpError(404, 'not_found', `No API route ${req.method} ${req.path}.`));
+  });
+  return router;
+}

@@ -1,0 +1,4 @@
+/** Shared test helpers: database per file, factories, signed-in supertest agents. */
+export { useDatabase } from './database';
+export { TEST_PASSWORD, buildOrganisation, buildTeam, buildUser, uniqueEmail, type BuildUserOptions } from './factories';
+export { anonymousAgent, signedInAgent, type Agent } from './agents';
