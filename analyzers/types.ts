@@ -55,6 +55,11 @@ export interface FileAnalysis {
   fragments: Fragment[];
   /** Set when the file could not be parsed (or was cut off by the time limit); fragments is then empty. */
   error?: string;
+  /**
+   * Syntax errors the parser recovered from; absent when there were none. The fragments around
+   * them are still reported (a half-written function elsewhere does not hide the good ones).
+   */
+  syntaxErrors?: number;
 }
 
 /** A file that was not analysed, with the reason (default ignore, gitignore rule, size, binary…). */
