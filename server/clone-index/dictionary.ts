@@ -1,0 +1,57 @@
+import type { Transaction } from 'sequelize';
+import { chunks, execute, select } from './sql';
+
+const LOOKUP_CHUNK = 50_000;
+
+/**
+ * Ranks of the given distinct shingles, adding the unknown ones to the dictionary.
+ * New shingles get ranks below every known rank (they are rarer than anything indexed, and no
+ * stored set contains them, so no stored array changes order). Among themselves the rarer in this
+ * batch comes first. Call under the index write lock.
+ */
+export async function resolveShingles(
+  tx: Transaction,
+  counts: Map<string, number>,
+): Promise<Map<string, number>> {
+  const ranks = await lookupShingles(tx, [...counts.keys()]);
+  const unknown = [...counts.keys()].filter((s) => !ranks.has(s));
+  if (unknown.length === 0) return ranks;
+  // most frequent first, so it gets the highest of the new ranks; ties by text for determinism
+  unknown.sort((a, b) => counts.get(b)! - counts.get(a)! || (a < b ? -1 : a > b ? 1 : 0));
+  const [{ min }] = await select<{ min: number | null }>(tx, 'select min(rank) as min from shingles');
+  const top = (min ?? 0) - 1;
+  const newRanks = unknown.map((_, i) => top - i);
+  for (const [start, end] of chunks(unknown.length, LOOKUP_CHUNK)) {
+    await execute(tx, 'insert into shingles (text, rank) select * from unnest($1::text[], $2::int[])', [
+      unknown.slice(start, end),
+      newRanks.slice(start, end),
+    ]);
+  }
+  unknown.forEach((s, i) => ranks.set(s, newRanks[i]));
+  return ranks;
+}
+
+/** Ranks of the known shingles among `texts` (unknown ones are absent from the map). */
+export async function lookupShingles(tx: Transaction | undefined, texts: string[]): Promise<Map<string, number>> {
+  const ranks = new Map<string, number>();
+  for (const [start, end] of chunks(texts.length, LOOKUP_CHUNK)) {
+    const rows = await select<{ text: string; rank: number }>(
+      tx,
+      'select text, rank from shingles where text = any($1::text[])',
+      [texts.slice(start, end)],
+    );
+    for (const row of rows) ranks.set(row.text, row.rank);
+  }
+  return ranks;
+}
+
+/** Turns a shingle set into its ascending rank array. */
+export function toRankArray(shingles: string[], ranks: Map<string, number>): Int32Array {
+  const out = new Int32Array(shingles.length);
+  shingles.forEach((s, i) => {
+    const rank = ranks.get(s);
+    if (rank === undefined) throw new Error(`shingle missing from the dictionary`);
+    out[i] = rank;
+  });
+  return out.sort();
+}

@@ -1,0 +1,260 @@
+import { createHash } from 'node:crypto';
+import type { Transaction } from 'sequelize';
+import { INDEX_MIN_THRESHOLD } from '../../shared/constants';
+import { parseThreshold, prefixLength, type Threshold } from '../matching/threshold';
+import { positionFilter, probeKeys, verifyCandidates, type ProbeHit, type SetMatch } from './candidates';
+import { resolveShingles, toRankArray } from './dictionary';
+import { chunks, execute, intArrayLiteral, lockIndex, select } from './sql';
+
+/** The threshold the stored prefixes and set pairs are written for. */
+export const indexThreshold: Threshold = parseThreshold(INDEX_MIN_THRESHOLD);
+
+/** Content address of a shingle set: sha-1 of its sorted shingles (unambiguous: JSON). */
+export function setHash(shingles: string[]): string {
+  const sorted = [...shingles].sort();
+  return createHash('sha1').update(JSON.stringify(sorted)).digest('hex');
+}
+
+/** What addSets reports. */
+export interface AddSetsResult {
+  /** the stored set id of each input, in input order */
+  setIds: number[];
+  newSetCount: number;
+  newPairCount: number;
+  candidates: number;
+  timings: { store: number; probe: number };
+}
+
+/** Options of addSets. */
+export interface AddSetsOptions {
+  /** how many new sets one probe query carries; results do not depend on it */
+  batchSize?: number;
+}
+
+const WRITE_CHUNK = 20_000;
+
+/**
+ * Adds shingle sets to the index. Only sets never seen before (by hash) are stored, written to the
+ * prefix table and probed; the probe finds every stored set (old or new) within the index threshold
+ * and records the pair once. Invariant kept: set_pairs holds every pair of distinct stored sets
+ * whose Jaccard similarity reaches the index threshold. Runs under the index write lock in `tx`.
+ */
+export async function addSets(
+  tx: Transaction,
+  sets: { hash: string; shingles: string[] }[],
+  options: AddSetsOptions = {},
+): Promise<AddSetsResult> {
+  const started = performance.now();
+  await lockIndex(tx);
+  const idByHash = await existingSetIds(tx, [...new Set(sets.map((s) => s.hash))]);
+  const fresh = new Map<string, string[]>();
+  for (const s of sets) if (!idByHash.has(s.hash) && s.shingles.length > 0) fresh.set(s.hash, s.shingles);
+
+  const newSets = await storeNewSets(tx, fresh, idByHash);
+  const stored = performance.now();
+  const { pairs, candidates } = await probeNewSets(tx, newSets, options.batchSize ?? 1000);
+  await writePairs(tx, pairs);
+  const emptyIds = await storeEmptySets(tx, sets, idByHash);
+  return {
+    setIds: sets.map((s) => idByHash.get(s.hash) ?? emptyIds.get(s.hash)!),
+    newSetCount: newSets.length,
+    newPairCount: pairs.length,
+    candidates,
+    timings: { store: stored - started, probe: performance.now() - stored },
+  };
+}
+
+async function existingSetIds(tx: Transaction, hashes: string[]) {
+  const ids = new Map<string, number>();
+  for (const [start, end] of chunks(hashes.length, WRITE_CHUNK)) {
+    const rows = await select<{ id: number; hash: string }>(
+      tx,
+      'select id, hash from shingle_sets where hash = any($1::text[])',
+      [hashes.slice(start, end)],
+    );
+    for (const row of rows) ids.set(row.hash, row.id);
+  }
+  return ids;
+}
+
+/** An empty set (a fragment shorter than one shingle) is stored but never indexed: it pairs with nothing. */
+async function storeEmptySets(tx: Transaction, sets: { hash: string; shingles: string[] }[], known: Map<string, number>) {
+  const ids = new Map<string, number>();
+  const empty = [...new Set(sets.filter((s) => s.shingles.length === 0 && !known.has(s.hash)).map((s) => s.hash))];
+  if (empty.length === 0) return ids;
+  const rows = await select<{ id: number; hash: string }>(
+    tx,
+    `insert into shingle_sets (hash, size, ranks) select h, 0, '{}' from unnest($1::text[]) as h
+     returning id, hash`,
+    [empty],
+  );
+  for (const row of rows) ids.set(row.hash, row.id);
+  return ids;
+}
+
+interface NewSet {
+  id: number;
+  ranks: Int32Array;
+}
+
+async function storeNewSets(tx: Transaction, fresh: Map<string, string[]>, idByHash: Map<string, number>) {
+  const documentFrequency = new Map<string, number>();
+  for (const shingles of fresh.values()) {
+    for (const s of shingles) documentFrequency.set(s, (documentFrequency.get(s) ?? 0) + 1);
+  }
+  const ranks = await resolveShingles(tx, documentFrequency);
+  const hashes = [...fresh.keys()];
+  const rankArrays = hashes.map((h) => toRankArray(fresh.get(h)!, ranks));
+  const newSets: NewSet[] = [];
+  for (const [start, end] of chunks(hashes.length, WRITE_CHUNK)) {
+    const rows = await select<{ id: number; hash: string }>(
+      tx,
+      `insert into shingle_sets (hash, size, ranks)
+       select h, s, r::int[] from unnest($1::text[], $2::int[], $3::text[]) as t(h, s, r)
+       returning id, hash`,
+      [
+        hashes.slice(start, end),
+        rankArrays.slice(start, end).map((r) => r.length),
+        rankArrays.slice(start, end).map(intArrayLiteral),
+      ],
+    );
+    const position = new Map(hashes.slice(start, end).map((h, i) => [h, start + i]));
+    for (const row of rows) {
+      idByHash.set(row.hash, row.id);
+      newSets.push({ id: row.id, ranks: rankArrays[position.get(row.hash)!] });
+    }
+  }
+  await writePrefixEntries(tx, newSets, indexThreshold);
+  return newSets;
+}
+
+/** Writes the probing prefix of each set at threshold t (the shorter indexing prefix would be wrong: sets arrive in any size order). */
+export async function writePrefixEntries(tx: Transaction, sets: NewSet[], t: Threshold, table = 'prefix_entries') {
+  let rank: number[] = [];
+  let setId: number[] = [];
+  let position: number[] = [];
+  let size: number[] = [];
+  const flush = async () => {
+    if (rank.length === 0) return;
+    await execute(
+      tx,
+      `insert into ${table} (rank, set_id, position, size) select * from unnest($1::int[], $2::int[], $3::int[], $4::int[])`,
+      [rank, setId, position, size],
+    );
+    rank = [];
+    setId = [];
+    position = [];
+    size = [];
+  };
+  for (const s of sets) {
+    const length = prefixLength(t, s.ranks.length);
+    for (let i = 0; i < length; i++) {
+      rank.push(s.ranks[i]);
+      setId.push(s.id);
+      position.push(i);
+      size.push(s.ranks.length);
+    }
+    if (rank.length >= 200_000) await flush();
+  }
+  await flush();
+}
+
+/**
+ * Probes the prefix table with probe sets (one SQL round trip per batch for the prefix hits, one
+ * for the candidates' sets), then position filter and verification here.
+ */
+export async function probeSets(
+  tx: Transaction | undefined,
+  probes: Int32Array[],
+  t: Threshold,
+  skip: (probe: number, setId: number) => boolean,
+): Promise<{ matches: SetMatch[]; candidates: number }> {
+  const probeIndex: number[] = [];
+  const rank: number[] = [];
+  const position: number[] = [];
+  const lo: number[] = [];
+  const hi: number[] = [];
+  probes.forEach((x, p) => {
+    const keys = probeKeys(x, t);
+    keys.ranks.forEach((r, i) => {
+      probeIndex.push(p);
+      rank.push(r);
+      position.push(i);
+      lo.push(keys.lo);
+      hi.push(keys.hi);
+    });
+  });
+  if (rank.length === 0) return { matches: [], candidates: 0 };
+  const hits = await select<ProbeHit>(
+    tx,
+    `select p.probe, p.pos as "probePosition", e.set_id as "setId", e.position, e.size
+       from unnest($1::int[], $2::int[], $3::int[], $4::int[], $5::int[]) as p(probe, rank, pos, lo, hi)
+       join prefix_entries e on e.rank = p.rank and e.size between p.lo and p.hi
+      order by p.probe, p.pos`,
+    [probeIndex, rank, position, lo, hi],
+  );
+  const survivors = positionFilter(hits, probes.map((x) => x.length), t, skip);
+  const wanted = new Set<number>();
+  let candidates = 0;
+  for (const ids of survivors.values()) {
+    candidates += ids.length;
+    for (const id of ids) wanted.add(id);
+  }
+  const stored = await loadSets(tx, [...wanted]);
+  return { matches: verifyCandidates(survivors, probes, stored, t), candidates };
+}
+
+/** Rank arrays of stored sets by id. */
+export async function loadSets(tx: Transaction | undefined, ids: number[]): Promise<Map<number, Int32Array>> {
+  const sets = new Map<number, Int32Array>();
+  for (const [start, end] of chunks(ids.length, WRITE_CHUNK)) {
+    const rows = await select<{ id: number; ranks: number[] }>(
+      tx,
+      'select id, ranks from shingle_sets where id = any($1::int[])',
+      [ids.slice(start, end)],
+    );
+    for (const row of rows) sets.set(row.id, Int32Array.from(row.ranks));
+  }
+  return sets;
+}
+
+interface StoredPair {
+  a: number;
+  b: number;
+  overlap: number;
+  similarity: number;
+}
+
+async function writePairs(tx: Transaction, pairs: StoredPair[]) {
+  for (const [start, end] of chunks(pairs.length, WRITE_CHUNK)) {
+    const slice = pairs.slice(start, end);
+    await execute(
+      tx,
+      `insert into set_pairs (set_a, set_b, overlap, similarity)
+       select * from unnest($1::int[], $2::int[], $3::int[], $4::float8[]) on conflict do nothing`,
+      [slice.map((p) => p.a), slice.map((p) => p.b), slice.map((p) => p.overlap), slice.map((p) => p.similarity)],
+    );
+  }
+}
+
+async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: number) {
+  const pairs = new Map<string, StoredPair>();
+  let candidates = 0;
+  for (const [start, end] of chunks(newSets.length, Math.max(1, batchSize))) {
+    const batch = newSets.slice(start, end);
+    const result = await probeSets(
+      tx,
+      batch.map((s) => s.ranks),
+      indexThreshold,
+      (probe, setId) => batch[probe].id === setId,
+    );
+    candidates += result.candidates;
+    for (const m of result.matches) {
+      const x = batch[m.probe];
+      const a = Math.min(x.id, m.setId);
+      const b = Math.max(x.id, m.setId);
+      pairs.set(`${a}:${b}`, { a, b, overlap: m.overlap, similarity: m.similarity });
+    }
+  }
+  return { pairs: [...pairs.values()], candidates };
+}

@@ -1,0 +1,22 @@
+import { DataTypes, Model, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+
+/** Two stored sets whose similarity reaches the index threshold, with their exact overlap (setA < setB). */
+export class SetPair extends Model<InferAttributes<SetPair>, InferCreationAttributes<SetPair>> {
+  declare setA: number;
+  declare setB: number;
+  declare overlap: number;
+  declare similarity: number;
+}
+
+/** Binds the model to a Sequelize instance (table `set_pairs`). */
+export function initSetPair(sequelize: Sequelize) {
+  SetPair.init(
+    {
+      setA: { type: DataTypes.INTEGER, primaryKey: true },
+      setB: { type: DataTypes.INTEGER, primaryKey: true },
+      overlap: { type: DataTypes.INTEGER, allowNull: false },
+      similarity: { type: DataTypes.DOUBLE, allowNull: false },
+    },
+    { sequelize, tableName: 'set_pairs', underscored: true, timestamps: false },
+  );
+}
