@@ -1,0 +1,50 @@
+import { describe, expect, it } from 'vitest';
+import { acceptInvitation } from '../../../server/commands/acceptInvitation';
+import { inviteUser } from '../../../server/commands/inviteUser';
+import { sentMail } from '../../../server/mail';
+import { Invitation } from '../../../server/models/Invitation';
+import { buildUser, uniqueEmail, useDatabase } from '../../support';
+
+useDatabase();
+
+function lastToken(email: string): string {
+  return /\/invitations\/([A-Za-z0-9_-]{43})/.exec(sentMail(email).at(-1)!.text)![1];
+}
+
+describe('acceptInvitation', () => {
+  it('stores only the hash of the token', async () => {
+    const admin = await buildUser({ role: 'admin' });
+    const email = uniqueEmail();
+    const invitation = await inviteUser({ actor: admin, invitee: { email, name: 'Kit', role: 'viewer' } });
+    const token = lastToken(email);
+    const stored = await Invitation.findByPk(invitation.id);
+    expect(stored!.tokenHash).toMatch(/^[0-9a-f]{64}$/);
+    expect(stored!.tokenHash).not.toContain(token);
+  });
+
+  describe('edge cases', () => {
+    it('creates one account when the same link is accepted twice at once', async () => {
+      const admin = await buildUser({ role: 'admin' });
+      const email = uniqueEmail();
+      await inviteUser({ actor: admin, invitee: { email, name: 'Twin', role: 'engineer' } });
+      const token = lastToken(email);
+      const results = await Promise.allSettled([
+        acceptInvitation({ token, name: 'Twin', password: 'first-click-password' }),
+        acceptInvitation({ token, name: 'Twin', password: 'second-click-password' }),
+      ]);
+      expect(results.filter((r) => r.status === 'fulfilled')).toHaveLength(1);
+      const failure = results.find((r) => r.status === 'rejected') as PromiseRejectedResult;
+      expect(failure.reason.status).toBe(404);
+    });
+
+    it('refuses an expired link', async () => {
+      const admin = await buildUser({ role: 'admin' });
+      const email = uniqueEmail();
+      const invitation = await inviteUser({ actor: admin, invitee: { email, name: 'Late', role: 'viewer' } });
+      await invitation.update({ expiresAt: new Date(Date.now() - 1000) });
+      await expect(acceptInvitation({ token: lastToken(email), name: 'Late', password: 'too-late-password' })).rejects.toMatchObject({
+        status: 404,
+      });
+    });
+  });
+});
