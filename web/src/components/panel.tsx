@@ -1,0 +1,27 @@
+import type { ReactNode } from 'react';
+import clsx from 'clsx';
+
+/** A bordered section with an optional title bar and actions. */
+export function Panel({
+  title,
+  actions,
+  children,
+  className,
+}: {
+  title?: ReactNode;
+  actions?: ReactNode;
+  children: ReactNode;
+  className?: string;
+}) {
+  return (
+    <section className={clsx('rounded-sm border border-line bg-panel', className)}>
+      {title || actions ? (
+        <header className="flex items-center justify-between gap-4 border-b border-line px-4 py-2">
+          <h2 className="text-xs font-semibold tracking-wider text-muted uppercase">{title}</h2>
+          {actions}
+        </header>
+      ) : null}
+      <div className="p-4">{children}</div>
+    </section>
+  );
+}
