@@ -68,7 +68,8 @@ export async function analyzeFiles(
   try {
     // Load the analyzers in every thread first, so that a file's time limit measures its own
     // parse and not the thread's start-up.
-    await Promise.all(Array.from({ length: threads }, () => pool.run({ warm: true })));
+    const languages = [...new Set(tasks.map((task) => analyzerForPath(task.path)!.id))];
+    await Promise.all(Array.from({ length: threads }, () => pool.run({ warm: languages })));
     // Never more files in flight than threads: a file's clock starts when a thread takes it,
     // not while it waits in the queue behind others.
     const results: FileAnalysis[] = new Array(tasks.length);

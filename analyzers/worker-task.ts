@@ -15,8 +15,12 @@ export async function runTask(task: AnalyzeTask): Promise<FileAnalysis> {
   return analyzeFile(task.path, task.text, task.options);
 }
 
-/** Loads every language's parser (grammars included) so the first real file is not charged for it. */
-export async function warmUp(): Promise<null> {
-  await Promise.all(LANGUAGES.map((language) => language.analyze(`warm${language.extensions[0]}`, '', resolveOptions())));
+/**
+ * Loads the parsers (grammars included) of the given languages, so the first real file is not
+ * charged for it against its time limit.
+ */
+export async function warmUp(languages: readonly string[]): Promise<null> {
+  const wanted = LANGUAGES.filter((language) => languages.includes(language.id));
+  await Promise.all(wanted.map((language) => language.analyze(`warm${language.extensions[0]}`, '', resolveOptions())));
   return null;
 }

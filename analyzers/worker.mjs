@@ -1,22 +1,22 @@
 // The pool thread's entry, in plain JavaScript so a thread can start without a TypeScript loader.
-// Under `node --import tsx` the thread inherits the loader and the .ts import just works; under
-// vitest (or plain node) it does not, so tsx's loader is registered in this thread on first use.
+// When the thread already has one (it inherited `--import tsx`) the .ts import just works;
+// otherwise (vitest, plain node) tsx's scoped `tsImport` loads it. The failed first import is
+// cached by URL, which is why the fallback goes through tsImport's own namespaced URL.
 let loaded;
 
 async function load() {
   try {
     return await import('./worker-task.ts');
   } catch (error) {
-    if (error?.code !== 'ERR_UNKNOWN_FILE_EXTENSION' && error?.code !== 'ERR_MODULE_NOT_FOUND') throw error;
-    const { register } = await import('tsx/esm/api');
-    register();
-    return await import('./worker-task.ts');
+    if (error?.code !== 'ERR_UNKNOWN_FILE_EXTENSION') throw error;
+    const { tsImport } = await import('tsx/esm/api');
+    return await tsImport('./worker-task.ts', import.meta.url);
   }
 }
 
 export default async function analyze(task) {
   loaded ??= load();
   const module = await loaded;
-  if (task.warm) return module.warmUp();
+  if (task.warm) return module.warmUp(task.warm);
   return module.runTask(task);
 }
