@@ -13,7 +13,7 @@ export function AdminRoute() {
   return (
     <div className="max-w-6xl">
       <PageHeader title="Admin" subtitle="People of your organisation, their roles, and invitations." />
-      <div className="grid gap-4 xl:grid-cols-[1fr_320px]">
+      <div className="grid items-start gap-4 xl:grid-cols-[1fr_320px]">
         <Panel title="Users">
           <UserTable currentUserId={user.id} />
         </Panel>

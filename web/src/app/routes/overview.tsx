@@ -28,7 +28,7 @@ export function OverviewRoute() {
           </div>
         ))}
       </div>
-      <div className="grid gap-4 lg:grid-cols-[2fr_1fr]">
+      <div className="grid items-start gap-4 lg:grid-cols-[2fr_1fr]">
         <Panel title="Clone ratio by release">
           <div className="flex h-40 items-center justify-center rounded-sm border border-dashed border-line text-sm text-muted">
             No snapshots yet. Each repository's trend appears here once two releases are loaded.
