@@ -37,7 +37,8 @@ export interface ClassComparison {
  * Status, first that applies: new (no member was in a previous class), drifted (some members that
  * existed before changed and others did not), grown / shrunk (more / fewer members than the matched
  * class), edited (every member that existed before changed), unchanged.
- * Returns the comparisons and the indexes of previous classes no current class matched (gone).
+ * Returns the comparisons and the indexes of previous classes that no current class continues
+ * (gone; a class merged into a larger one is gone too, its members now count in the larger one).
  */
 export function compareClasses(
   current: MemberIdentity[][],
@@ -65,7 +66,7 @@ export function compareClasses(
     if (votes.size === 0) return { status: 'new', previous: -1, changed };
     // the previous class sharing most members (ties: the earlier one) is this class's ancestor
     const [prev] = [...votes.entries()].sort((x, y) => y[1] - x[1] || x[0] - y[0])[0];
-    for (const cls of votes.keys()) matched.add(cls);
+    matched.add(prev);
     let status: ClassStatus;
     if (changedCount > 0 && changedCount < existed) status = 'drifted';
     else if (members.length > previous[prev].length) status = 'grown';

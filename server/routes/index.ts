@@ -8,9 +8,22 @@ import { healthRoutes } from './health';
 import { invitationRoutes } from './invitations';
 import { sessionRoutes } from './session';
 import { userRoutes } from './users';
+import { cloneClassRoutes } from './clone-classes';
+import { findCopiesRoutes } from './find-copies';
+import { repositoryRoutes } from './repositories';
+import { snapshotRoutes } from './snapshots';
 
 /** Every resource's routes. Add new router files here; tests read this list. */
-export const ROUTE_GROUPS: RouteGroup[] = [healthRoutes, sessionRoutes, userRoutes, invitationRoutes];
+export const ROUTE_GROUPS: RouteGroup[] = [
+  healthRoutes,
+  sessionRoutes,
+  userRoutes,
+  invitationRoutes,
+  repositoryRoutes,
+  snapshotRoutes,
+  cloneClassRoutes,
+  findCopiesRoutes,
+];
 
 /** Every declared API route with its full path and guard (what the route × role tests enumerate). */
 export function registeredRoutes(): DeclaredRoute[] {

@@ -1,0 +1,131 @@
+import type { ClassListQuery, ClassStatus } from '../../shared/api/snapshots';
+import { parseThreshold } from '../matching/threshold';
+import { clonePairsWithin, type Instance } from './snapshot-pairs';
+import { select } from './sql';
+
+/** A class row with its member paths, as lists show it. */
+export interface ClassRow {
+  id: number;
+  snapshotId: number;
+  size: number;
+  tokens: number;
+  minSimilarity: number;
+  maxSimilarity: number;
+  cloneType: number;
+  language: string;
+  status: ClassStatus;
+  paths: string[];
+}
+
+const SORT_COLUMNS: Record<ClassListQuery['sort'], string> = {
+  size: 'c.size',
+  tokens: 'c.tokens',
+  similarity: 'c.max_similarity',
+  type: 'c.clone_type',
+};
+
+const CLASS_COLUMNS = `c.id, c.snapshot_id as "snapshotId", c.size, c.tokens, c.min_similarity as "minSimilarity",
+  c.max_similarity as "maxSimilarity", c.clone_type as "cloneType", c.language, c.status,
+  (select array_agg(distinct sf.path) from clone_class_members m join snapshot_files sf on sf.id = m.snapshot_file_id
+    where m.class_id = c.id) as paths`;
+
+/**
+ * One page of a snapshot's classes, sorted and filtered in SQL. The path filter matches any
+ * member whose path contains the text (case-insensitive).
+ */
+export async function listSnapshotClasses(snapshotId: number, query: ClassListQuery): Promise<{ rows: ClassRow[]; total: number }> {
+  const where = ['c.snapshot_id = $1'];
+  const bind: unknown[] = [snapshotId];
+  const add = (sql: string, value: unknown) => {
+    bind.push(value);
+    where.push(sql.replace('?', `$${bind.length}`));
+  };
+  if (query.type !== undefined) add('c.clone_type = ?', query.type);
+  if (query.language !== undefined) add('c.language = ?', query.language);
+  if (query.status !== undefined) add('c.status = ?', query.status);
+  if (query.path !== undefined && query.path !== '') {
+    add(
+      `exists (select 1 from clone_class_members m join snapshot_files sf on sf.id = m.snapshot_file_id
+                where m.class_id = c.id and strpos(lower(sf.path), lower(?)) > 0)`,
+      query.path,
+    );
+  }
+  const filter = where.join(' and ');
+  const [{ total }] = await select<{ total: number }>(undefined, `select count(*)::int as total from clone_classes c where ${filter}`, bind);
+  const order = `${SORT_COLUMNS[query.sort]} ${query.order === 'asc' ? 'asc' : 'desc'}, c.ordinal asc`;
+  const rows = await select<ClassRow>(
+    undefined,
+    `select ${CLASS_COLUMNS} from clone_classes c where ${filter} order by ${order}
+      limit ${query.pageSize} offset ${(query.page - 1) * query.pageSize}`,
+    bind,
+  );
+  return { rows: rows.map(sortPaths), total };
+}
+
+const sortPaths = <T extends ClassRow>(row: T): T => ({ ...row, paths: [...(row.paths ?? [])].sort().slice(0, 5) });
+
+/** Every class of a snapshot (the comparison view), largest first. */
+export async function allSnapshotClasses(snapshotId: number): Promise<ClassRow[]> {
+  const rows = await select<ClassRow>(undefined, `select ${CLASS_COLUMNS} from clone_classes c where c.snapshot_id = $1 order by c.ordinal`, [snapshotId]);
+  return rows.map(sortPaths);
+}
+
+/** One class row, or undefined. */
+export async function findClass(id: number): Promise<(ClassRow & { repositoryId: number; snapshotLabel: string; threshold: string }) | undefined> {
+  const [row] = await select<ClassRow & { repositoryId: number; snapshotLabel: string; threshold: string }>(
+    undefined,
+    `select ${CLASS_COLUMNS}, s.repository_id as "repositoryId", s.label as "snapshotLabel", (s.settings->>'threshold') as threshold
+       from clone_classes c join snapshots s on s.id = c.snapshot_id where c.id = $1`,
+    [id],
+  );
+  return row && sortPaths(row);
+}
+
+/** A member of a class with its code and change flag. */
+export interface MemberRow extends Instance {
+  startColumn: number;
+  endColumn: number;
+  codeChanged: boolean;
+  code: string;
+}
+
+/**
+ * The members of a class with their source lines, and the clone pairs among them (recomputed
+ * from the stored set pairs at the snapshot's threshold).
+ */
+export async function classMembers(classId: number, threshold: string) {
+  const members = await select<MemberRow & { text: string }>(
+    undefined,
+    `select sf.id as "snapshotFileId", f.id as "fragmentId", f.set_id as "setId", ss.size as "setSize", sf.path, sf.language,
+            f.name, f.kind, f.start_line as "startLine", f.end_line as "endLine", f.start_column as "startColumn",
+            f.end_column as "endColumn", f.tokens, f.raw_hash as "rawHash", f.normalized_hash as "normalizedHash",
+            m.code_changed as "codeChanged", fc.text
+       from clone_class_members m
+       join snapshot_files sf on sf.id = m.snapshot_file_id
+       join fragments f on f.id = m.fragment_id
+       join shingle_sets ss on ss.id = f.set_id
+       join file_contents fc on fc.hash = sf.content_hash
+      where m.class_id = $1
+      order by sf.path, f.start_line`,
+    [classId],
+  );
+  const withCode: MemberRow[] = members.map(({ text, ...m }) => ({
+    ...m,
+    code: text.split(/\r?\n/).slice(m.startLine - 1, m.endLine).join('\n'),
+  }));
+  const pairs = await clonePairsWithin(undefined, withCode, parseThreshold(threshold));
+  return { members: withCode, pairs };
+}
+
+/** The classes of the previous snapshot that no class of this snapshot continues. */
+export async function goneClasses(snapshotId: number, previousId: number): Promise<ClassRow[]> {
+  const rows = await select<ClassRow>(
+    undefined,
+    `select ${CLASS_COLUMNS} from clone_classes c
+      where c.snapshot_id = $2
+        and not exists (select 1 from clone_classes n where n.snapshot_id = $1 and n.previous_class_id = c.id)
+      order by c.ordinal`,
+    [snapshotId, previousId],
+  );
+  return rows.map(sortPaths);
+}

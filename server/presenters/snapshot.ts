@@ -1,0 +1,88 @@
+import type { CloneClassDetailDTO, CloneClassSummaryDTO, GoneClassDTO, SnapshotDTO, SnapshotMetricsDTO } from '../../shared/api/snapshots';
+import type { ClassRow, MemberRow } from '../clone-index/snapshot-classes';
+import type { InstancePair } from '../clone-index/snapshot-pairs';
+import type { Snapshot } from '../models/Snapshot';
+import type { SnapshotMetric } from '../models/SnapshotMetric';
+
+/** A snapshot with its counts, timings and (once ready) its figures. */
+export function presentSnapshot(snapshot: Snapshot, metric: SnapshotMetric | null): SnapshotDTO {
+  const metrics: SnapshotMetricsDTO | null = metric && {
+    fragmentTokens: Number(metric.fragmentTokens),
+    clonedTokens: Number(metric.clonedTokens),
+    cloneRatio: metric.cloneRatio,
+    pairCount: metric.pairCount,
+    classCount: metric.classCount,
+    type1Pairs: metric.type1Pairs,
+    type2Pairs: metric.type2Pairs,
+    type3Pairs: metric.type3Pairs,
+    crossPairCount: metric.crossPairCount,
+    newClassCount: metric.newClassCount,
+    driftedClassCount: metric.driftedClassCount,
+    goneClassCount: metric.goneClassCount,
+  };
+  return {
+    id: snapshot.id,
+    repositoryId: snapshot.repositoryId,
+    label: snapshot.label,
+    source: snapshot.source,
+    commitSha: snapshot.commitSha,
+    status: snapshot.status,
+    error: snapshot.error,
+    fileCount: snapshot.fileCount,
+    skippedCount: snapshot.skippedCount,
+    failedCount: snapshot.failedCount,
+    analyzedFileCount: snapshot.analyzedFileCount,
+    fragmentCount: snapshot.fragmentCount,
+    newSetCount: snapshot.newSetCount,
+    cloneRatio: snapshot.cloneRatio,
+    timings: snapshot.timings,
+    createdAt: snapshot.createdAt.toISOString(),
+    metrics,
+  };
+}
+
+/** A clone class as a list row. */
+export function presentCloneClass(row: ClassRow): CloneClassSummaryDTO {
+  return {
+    id: row.id,
+    snapshotId: row.snapshotId,
+    size: row.size,
+    tokens: row.tokens,
+    minSimilarity: row.minSimilarity,
+    maxSimilarity: row.maxSimilarity,
+    cloneType: row.cloneType,
+    language: row.language,
+    status: row.status,
+    paths: row.paths,
+  };
+}
+
+/** A previous class that no current class continues. */
+export function presentGoneClass(row: ClassRow): GoneClassDTO {
+  return { id: row.id, size: row.size, tokens: row.tokens, paths: row.paths };
+}
+
+/** A clone class with its members' code and the pairs among them. */
+export function presentCloneClassDetail(
+  row: ClassRow & { repositoryId: number; snapshotLabel: string },
+  members: MemberRow[],
+  pairs: InstancePair[],
+): CloneClassDetailDTO {
+  return {
+    ...presentCloneClass(row),
+    repositoryId: row.repositoryId,
+    snapshotLabel: row.snapshotLabel,
+    members: members.map((m) => ({
+      fragmentId: m.fragmentId,
+      path: m.path,
+      name: m.name,
+      kind: m.kind,
+      startLine: m.startLine,
+      endLine: m.endLine,
+      tokens: m.tokens,
+      changed: m.codeChanged,
+      code: m.code,
+    })),
+    pairs: pairs.map((p) => ({ a: p.a, b: p.b, similarity: p.similarity, type: p.type })),
+  };
+}

@@ -1,0 +1,38 @@
+import { findCopiesSchema, type FindCopiesResultDTO } from '../../shared/api/find-copies';
+import { currentUser } from '../auth/current-user';
+import { findCopies } from '../commands/findCopies';
+import { authorize } from '../policies';
+import { defineRoutes } from './define';
+import { parse } from './validate';
+
+/** /api/find-copies: paste a snippet, get every indexed copy of it (the snippet is not stored). */
+export const findCopiesRoutes = defineRoutes('/find-copies', [
+  {
+    method: 'post',
+    path: '/',
+    guard: 'findCopies.use',
+    handler: async (req, res) => {
+      const input = parse(findCopiesSchema, req.body);
+      const actor = currentUser(req);
+      authorize(actor, 'findCopies.use', { organisationId: actor.organisationId });
+      const threshold = input.threshold ?? 0.8;
+      const copies = await findCopies({ organisationId: actor.organisationId, language: input.language, text: input.text, threshold });
+      const answer: FindCopiesResultDTO = {
+        threshold,
+        copies: copies.map((c) => ({
+          repositoryId: c.repositoryId,
+          repositoryName: c.repositoryName,
+          snapshotId: c.snapshotId,
+          snapshotLabel: c.snapshotLabel,
+          path: c.path,
+          name: c.name,
+          startLine: c.startLine,
+          endLine: c.endLine,
+          similarity: c.similarity,
+          snippetFragment: c.snippetFragment,
+        })),
+      };
+      res.json(answer);
+    },
+  },
+]);

@@ -1,0 +1,100 @@
+/**
+ * API types and schemas of /api/repositories: tracked codebases, their settings, and the trend of
+ * their clone ratio over releases.
+ */
+import { z } from 'zod';
+import { INDEX_MIN_THRESHOLD } from '../constants';
+
+/** Path parameters of /api/repositories/:id. */
+export const repositoryParamsSchema = z.object({ id: z.coerce.number().int().positive({ error: 'Not a repository id.' }) });
+
+const settingsShape = {
+  description: z.string().trim().max(500, 'A description has at most 500 characters.'),
+  threshold: z
+    .number({ error: 'The threshold is a number.' })
+    .min(INDEX_MIN_THRESHOLD, `The threshold is at least ${INDEX_MIN_THRESHOLD}.`)
+    .max(1, 'The threshold is at most 1.')
+    .refine((v) => Number.isInteger(Math.round(v * 1e6)) && Math.abs(v * 1e6 - Math.round(v * 1e6)) < 1e-6, 'At most six decimals.'),
+  minTokens: z.number().int('Whole tokens only.').min(5, 'At least 5 tokens.').max(10_000, 'At most 10000 tokens.'),
+  shingleSize: z.number().int('A whole number.').min(1, 'At least 1.').max(10, 'At most 10.'),
+  ignore: z.array(z.string().max(300, 'An ignore line has at most 300 characters.')).max(500, 'At most 500 ignore lines.'),
+  cloneBudget: z.number().min(0, 'The budget is a share between 0 and 1.').max(1, 'The budget is a share between 0 and 1.').nullable(),
+};
+
+/** A repository name: what import, push and the web client all know it by. */
+export const repositoryNameSchema = z
+  .string({ error: 'Enter a name.' })
+  .trim()
+  .min(1, 'Enter a name.')
+  .max(100, 'A name has at most 100 characters.')
+  .regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, 'Letters, digits, dot, dash, underscore and slash only.');
+
+/** Body of POST /api/repositories. */
+export const createRepositorySchema = z.object({ name: repositoryNameSchema, ...settingsShape }).partial({
+  description: true,
+  threshold: true,
+  minTokens: true,
+  shingleSize: true,
+  ignore: true,
+  cloneBudget: true,
+});
+
+/** Body of PATCH /api/repositories/:id (settings and budget). */
+export const updateRepositorySchema = z.object({ name: repositoryNameSchema, ...settingsShape }).partial();
+
+/** Input of creating a repository. */
+export type CreateRepositoryInput = z.infer<typeof createRepositorySchema>;
+/** Input of updating a repository. */
+export type UpdateRepositoryInput = z.infer<typeof updateRepositorySchema>;
+
+/** The latest ready snapshot as a repository row shows it. */
+export interface LatestSnapshotDTO {
+  id: number;
+  label: string;
+  cloneRatio: number | null;
+  createdAt: string;
+}
+
+/** A repository as the API returns it. */
+export interface RepositoryDTO {
+  id: number;
+  name: string;
+  description: string;
+  threshold: number;
+  minTokens: number;
+  shingleSize: number;
+  ignore: string[];
+  cloneBudget: number | null;
+  createdAt: string;
+  latestSnapshot: LatestSnapshotDTO | null;
+  /** true when the latest snapshot's clone ratio is above the budget */
+  overBudget: boolean;
+}
+
+/** GET /api/repositories. */
+export interface RepositoryListDTO {
+  repositories: RepositoryDTO[];
+}
+
+/** One point of the trend: a ready snapshot's figures. */
+export interface TrendPointDTO {
+  snapshotId: number;
+  label: string;
+  createdAt: string;
+  cloneRatio: number;
+  fragmentTokens: number;
+  clonedTokens: number;
+  pairCount: number;
+  classCount: number;
+  crossPairCount: number;
+  newClassCount: number;
+  driftedClassCount: number;
+  goneClassCount: number;
+}
+
+/** GET /api/repositories/:id/metrics: the figures over releases, oldest first. */
+export interface RepositoryMetricsDTO {
+  repositoryId: number;
+  cloneBudget: number | null;
+  points: TrendPointDTO[];
+}

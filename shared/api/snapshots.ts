@@ -1,0 +1,141 @@
+/**
+ * API types and schemas of snapshots and their clone classes: listing, one snapshot, its classes
+ * (sorted, filtered, paginated on the server), one class with its members' code, and the
+ * comparison with the previous snapshot.
+ */
+import { z } from 'zod';
+
+/** Path parameters of /api/snapshots/:id and /api/clone-classes/:id. */
+export const idParamsSchema = z.object({ id: z.coerce.number().int().positive({ error: 'Not an id.' }) });
+
+/** What a class is, compared with the previous snapshot. */
+export const CLASS_STATUSES = ['new', 'unchanged', 'grown', 'shrunk', 'edited', 'drifted'] as const;
+/** A class status. */
+export type ClassStatus = (typeof CLASS_STATUSES)[number];
+
+/** Query of GET /api/snapshots/:id/classes. */
+export const classListQuerySchema = z.object({
+  sort: z.enum(['size', 'tokens', 'similarity', 'type']).default('tokens'),
+  order: z.enum(['asc', 'desc']).default('desc'),
+  type: z.coerce.number().int().min(1).max(3).optional(),
+  language: z.string().max(40).optional(),
+  path: z.string().max(300, 'A path filter has at most 300 characters.').optional(),
+  status: z.enum(CLASS_STATUSES).optional(),
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200, 'At most 200 a page.').default(50),
+});
+/** Parsed class list query. */
+export type ClassListQuery = z.infer<typeof classListQuerySchema>;
+
+/** A snapshot's figures (absent until the load has finished). */
+export interface SnapshotMetricsDTO {
+  fragmentTokens: number;
+  clonedTokens: number;
+  cloneRatio: number;
+  pairCount: number;
+  classCount: number;
+  type1Pairs: number;
+  type2Pairs: number;
+  type3Pairs: number;
+  crossPairCount: number;
+  newClassCount: number;
+  driftedClassCount: number;
+  goneClassCount: number;
+}
+
+/** A snapshot as the API returns it. */
+export interface SnapshotDTO {
+  id: number;
+  repositoryId: number;
+  label: string;
+  source: string;
+  commitSha: string | null;
+  status: 'pending' | 'running' | 'ready' | 'failed';
+  error: string | null;
+  fileCount: number;
+  skippedCount: number;
+  failedCount: number;
+  analyzedFileCount: number;
+  fragmentCount: number;
+  newSetCount: number;
+  cloneRatio: number | null;
+  timings: Record<string, number>;
+  createdAt: string;
+  metrics: SnapshotMetricsDTO | null;
+}
+
+/** GET /api/repositories/:id/snapshots, newest first. */
+export interface SnapshotListDTO {
+  snapshots: SnapshotDTO[];
+}
+
+/** A clone class as a list row shows it. */
+export interface CloneClassSummaryDTO {
+  id: number;
+  snapshotId: number;
+  size: number;
+  tokens: number;
+  minSimilarity: number;
+  maxSimilarity: number;
+  cloneType: number;
+  language: string;
+  status: ClassStatus;
+  /** the members' paths, for the list (at most five) */
+  paths: string[];
+}
+
+/** GET /api/snapshots/:id/classes. */
+export interface CloneClassPageDTO {
+  classes: CloneClassSummaryDTO[];
+  total: number;
+  page: number;
+  pageSize: number;
+}
+
+/** A member of a class with its code. */
+export interface CloneClassMemberDTO {
+  fragmentId: number;
+  path: string;
+  name: string;
+  kind: string;
+  startLine: number;
+  endLine: number;
+  tokens: number;
+  /** whether its code changed since the previous snapshot */
+  changed: boolean;
+  /** the fragment's source lines (startLine..endLine) */
+  code: string;
+}
+
+/** A pair inside a class, by member index. */
+export interface CloneClassPairDTO {
+  a: number;
+  b: number;
+  similarity: number;
+  type: 1 | 2 | 3;
+}
+
+/** GET /api/clone-classes/:id. */
+export interface CloneClassDetailDTO extends CloneClassSummaryDTO {
+  repositoryId: number;
+  snapshotLabel: string;
+  members: CloneClassMemberDTO[];
+  pairs: CloneClassPairDTO[];
+}
+
+/** A previous snapshot's class that no current class continues. */
+export interface GoneClassDTO {
+  id: number;
+  size: number;
+  tokens: number;
+  paths: string[];
+}
+
+/** GET /api/snapshots/:id/comparison. */
+export interface SnapshotComparisonDTO {
+  snapshotId: number;
+  previous: { id: number; label: string } | null;
+  counts: Record<ClassStatus | 'gone', number>;
+  classes: CloneClassSummaryDTO[];
+  gone: GoneClassDTO[];
+}
