@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { shingleSet } from './shingles';
+import { SHINGLE_SEPARATOR, shingleSet } from './shingles';
 import { lowerBound, tokenForm, type TokenStream } from './tokens';
 import type { AnalyzeOptions, Fragment, FragmentKind } from './types';
 
@@ -68,10 +68,67 @@ function sha1(parts: readonly string[]): string {
 }
 
 /**
+ * Per-file shingle machinery: each token's form gets a small integer id, each window of k ids a
+ * numeric key (exact while vocabulary^k stays below 2^53), and each key its shingle string, built
+ * once per file. Nested fragments share the file's windows instead of rebuilding them.
+ */
+class WindowTable {
+  private readonly keys: Float64Array | undefined;
+  private readonly strings = new Map<number, string>();
+
+  constructor(
+    private readonly forms: readonly string[],
+    private readonly k: number,
+  ) {
+    const vocabulary = new Map<string, number>();
+    const ids = new Int32Array(forms.length);
+    for (let i = 0; i < forms.length; i++) {
+      let id = vocabulary.get(forms[i]!);
+      if (id === undefined) {
+        id = vocabulary.size;
+        vocabulary.set(forms[i]!, id);
+      }
+      ids[i] = id;
+    }
+    const base = vocabulary.size + 1;
+    if (Math.pow(base, k) < Number.MAX_SAFE_INTEGER && forms.length >= k) {
+      const keys = new Float64Array(forms.length - k + 1);
+      for (let i = 0; i < keys.length; i++) {
+        let key = 0;
+        for (let j = 0; j < k; j++) key = key * base + ids[i + j]! + 1;
+        keys[i] = key;
+      }
+      this.keys = keys;
+    }
+  }
+
+  /** The shingle set of the tokens [from, to), as shingleSet would compute it. */
+  shingles(from: number, to: number): string[] {
+    const k = this.k;
+    if (!this.keys || to - from < k) return shingleSet(this.forms.slice(from, to), k);
+    const counts = new Map<number, number>();
+    const out: string[] = new Array(to - from - k + 1);
+    for (let i = from; i + k <= to; i++) {
+      const key = this.keys[i]!;
+      let text = this.strings.get(key);
+      if (text === undefined) {
+        text = this.forms[i]!;
+        for (let j = 1; j < k; j++) text += SHINGLE_SEPARATOR + this.forms[i + j]!;
+        this.strings.set(key, text);
+      }
+      const seen = (counts.get(key) ?? 0) + 1;
+      counts.set(key, seen);
+      out[i - from] = seen === 1 ? text : `${text}#${seen}`;
+    }
+    return out.sort();
+  }
+}
+
+/**
  * Attaches tokens, identities and shingle sets to spans. A span takes every token that lies
- * inside it, nested functions included (see the analyzers' README note on nesting); spans with
- * fewer than `minTokens` tokens are dropped. Fragments come out in source order (outer first
- * when two start together).
+ * inside it, nested functions included (see languages/babel.ts on nesting); spans with fewer
+ * than `minTokens` tokens are dropped. Fragments come out in source order (outer first when two
+ * start together).
  */
 export function buildFragments(
   text: string,
@@ -81,22 +138,23 @@ export function buildFragments(
 ): Fragment[] {
   const lines = new LineIndex(text);
   const sorted = [...spans].sort((a, b) => a.start - b.start || b.end - a.end);
+  const n = tokens.texts.length;
+  const raw: string[] = new Array(n);
+  const normal: string[] = new Array(n);
+  for (let i = 0; i < n; i++) {
+    raw[i] = tokenForm(tokens.texts[i]!, tokens.classes[i]!, false);
+    normal[i] = tokenForm(tokens.texts[i]!, tokens.classes[i]!, true);
+  }
+  let windows: WindowTable | undefined;
   const fragments: Fragment[] = [];
   for (const span of sorted) {
     const from = lowerBound(tokens.starts, span.start);
     const to = lowerBound(tokens.starts, span.end);
     const count = to - from;
     if (count === 0 || count < options.minTokens) continue;
-    const raw: string[] = new Array(count);
-    const normal: string[] = new Array(count);
-    for (let i = 0; i < count; i++) {
-      const t = tokens.texts[from + i]!;
-      const cls = tokens.classes[from + i]!;
-      raw[i] = tokenForm(t, cls, false);
-      normal[i] = tokenForm(t, cls, true);
-    }
-    // The span may end after its last token (whitespace cannot, but a dropped comment can);
-    // the reported range still covers the whole construct as the parser saw it.
+    windows ??= new WindowTable(options.normalize ? normal : raw, options.shingleSize);
+    // The span may end after its last token (a dropped comment can); the reported range still
+    // covers the whole construct as the parser saw it.
     const start = lines.position(span.start);
     const end = lines.position(Math.max(span.start, span.end - 1));
     fragments.push({
@@ -107,9 +165,9 @@ export function buildFragments(
       endLine: end.line,
       endColumn: end.column,
       tokens: count,
-      rawHash: sha1(raw),
-      normalizedHash: sha1(normal),
-      shingles: shingleSet(options.normalize ? normal : raw, options.shingleSize),
+      rawHash: sha1(raw.slice(from, to)),
+      normalizedHash: sha1(normal.slice(from, to)),
+      shingles: windows.shingles(from, to),
     });
   }
   return fragments;
