@@ -1,8 +1,8 @@
 import { bruteJoinAgainst, bruteSelfJoin } from './brute';
 import { minOverlap, overlapAtLeast, prefixLength, reaches, sizeBounds, type Threshold } from './threshold';
-import type { Algorithm, JoinOptions, JoinStats, SetPair } from './types';
+import type { Algorithm, JoinOptions, JoinProfile, JoinStats, SetPair } from './types';
 
-export type { Algorithm, JoinOptions, JoinStats, SetPair } from './types';
+export type { Algorithm, JoinOptions, JoinProfile, JoinStats, SetPair } from './types';
 export { ALGORITHMS, newJoinStats } from './types';
 
 /**
@@ -49,11 +49,11 @@ export function selfJoin(sets: readonly Int32Array[], t: Threshold, options: Joi
       pairs = selfJoinByLength(sets, t, stats);
       break;
     case 'prefix':
-      pairs = selfJoinByPrefix(sets, t, false, stats);
+      pairs = selfJoinByPrefix(sets, t, false, stats, options.profile);
       break;
     case 'position':
     case 'auto':
-      pairs = selfJoinByPrefix(sets, t, true, stats);
+      pairs = selfJoinByPrefix(sets, t, true, stats, options.profile);
       break;
     default:
       throw new Error(`unknown algorithm "${String(algorithm)}"`);
@@ -90,11 +90,11 @@ export function joinAgainst(
       pairs = joinAgainstByLength(probe, indexed, t, stats);
       break;
     case 'prefix':
-      pairs = joinAgainstByPrefix(probe, indexed, t, false, stats);
+      pairs = joinAgainstByPrefix(probe, indexed, t, false, stats, options.profile);
       break;
     case 'position':
     case 'auto':
-      pairs = joinAgainstByPrefix(probe, indexed, t, true, stats);
+      pairs = joinAgainstByPrefix(probe, indexed, t, true, stats, options.profile);
       break;
     default:
       throw new Error(`unknown algorithm "${String(algorithm)}"`);
@@ -243,7 +243,14 @@ function newCandidates(size: number): Candidates {
  * entries of sets not yet processed sit at the end of each list (appended in size order), so the
  * scan stops at the first one.
  */
-function selfJoinByPrefix(sets: readonly Int32Array[], t: Threshold, usePosition: boolean, stats?: JoinStats): SetPair[] {
+function selfJoinByPrefix(
+  sets: readonly Int32Array[],
+  t: Threshold,
+  usePosition: boolean,
+  stats?: JoinStats,
+  profile?: JoinProfile,
+): SetPair[] {
+  let clock = profile ? performance.now() : 0;
   const order = bySize(sets);
   let vocabulary = 0;
   for (const set of sets) if (set.length > 0 && set[set.length - 1] + 1 > vocabulary) vocabulary = set[set.length - 1] + 1;
@@ -253,6 +260,7 @@ function selfJoinByPrefix(sets: readonly Int32Array[], t: Threshold, usePosition
   // too-small head is skipped once and for all by moving its start.
   const listHead = listStart.slice(0, vocabulary);
   const { count, lastX, lastY, touched } = newCandidates(order.length);
+  if (profile) clock = lap(profile, 'indexMs', clock);
   const pairs: SetPair[] = [];
   let candidates = 0;
   let verified = 0;
@@ -292,6 +300,7 @@ function selfJoinByPrefix(sets: readonly Int32Array[], t: Threshold, usePosition
       }
     }
     candidates += touchedCount;
+    if (profile) clock = lap(profile, 'probeMs', clock);
     for (let n = 0; n < touchedCount; n++) {
       const m = touched[n];
       const c = count[m];
@@ -302,12 +311,20 @@ function selfJoinByPrefix(sets: readonly Int32Array[], t: Threshold, usePosition
       const overlap = overlapAtLeast(x, y, minOverlap(t, sizeX, y.length), lastX[m] + 1, lastY[m] + 1, c);
       if (overlap >= 0 && reaches(t, sizeX, y.length, overlap)) pairs.push(selfPair(order[k], order[m], overlap));
     }
+    if (profile) clock = lap(profile, 'verifyMs', clock);
   }
   if (stats) {
     stats.candidates += candidates;
     stats.verified += verified;
   }
   return pairs;
+}
+
+/** Adds the time since `since` to one phase and returns the new clock. */
+function lap(profile: JoinProfile, phase: keyof JoinProfile, since: number): number {
+  const now = performance.now();
+  profile[phase] += now - since;
+  return now;
 }
 
 /** First entry in [from, to) of a size-sorted run whose size is ≥ lower. */
@@ -362,7 +379,9 @@ function joinAgainstByPrefix(
   t: Threshold,
   usePosition: boolean,
   stats?: JoinStats,
+  profile?: JoinProfile,
 ): SetPair[] {
+  let clock = profile ? performance.now() : 0;
   const order = bySize(indexed);
   let vocabulary = 0;
   for (const set of indexed) if (set.length > 0 && set[set.length - 1] + 1 > vocabulary) vocabulary = set[set.length - 1] + 1;
@@ -373,6 +392,7 @@ function joinAgainstByPrefix(
     vocabulary,
   );
   const { count, lastX, lastY, touched } = newCandidates(order.length);
+  if (profile) clock = lap(profile, 'indexMs', clock);
   const pairs: SetPair[] = [];
   let candidates = 0;
   let verified = 0;
@@ -410,6 +430,7 @@ function joinAgainstByPrefix(
       }
     }
     candidates += touchedCount;
+    if (profile) clock = lap(profile, 'probeMs', clock);
     for (let n = 0; n < touchedCount; n++) {
       const m = touched[n];
       const c = count[m];
@@ -420,6 +441,7 @@ function joinAgainstByPrefix(
       const overlap = overlapAtLeast(x, y, minOverlap(t, sizeX, y.length), lastX[m] + 1, lastY[m] + 1, c);
       if (overlap >= 0 && reaches(t, sizeX, y.length, overlap)) pairs.push({ a, b: order[m], overlap });
     }
+    if (profile) clock = lap(profile, 'verifyMs', clock);
   }
   if (stats) {
     stats.candidates += candidates;

@@ -1,0 +1,234 @@
+import { spawnSync } from 'node:child_process';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { parseArgs } from 'node:util';
+import { newJoinStats, selfJoin, type Algorithm, type JoinProfile } from '../matching/join';
+import { rankIntegerSets } from '../matching/order';
+import { parseThreshold } from '../matching/threshold';
+
+/**
+ * `npm run bench:join [-- --sizes 10000,20000 --threshold 0.8 --seed 7]`: the join's figures on
+ * synthetic collections, printed as a Markdown table. Not a test: it measures, it does not judge.
+ *
+ * Each (size, method) cell runs in a child process of its own, so that its peak memory (the
+ * process's maximum resident set) is its own and not left over from an earlier cell. The
+ * collection is generated from the seed in the child, identically for every method.
+ *
+ * The collection imitates shingle sets of real functions:
+ * - ids drawn from a Zipf-like law (exponent 1 over 2^20 ids), so a few shingles — think `( ) {`
+ *   — sit in most sets and most are rare;
+ * - sizes log-normal (median 80 shingles, long tail, 20..3000), like functions of ≥ 50 tokens;
+ * - planted near-duplicates: 10% of the sets copy an earlier set and then drop or replace 0–15%
+ *   of its ids, which puts many pairs just above and just below 0.8.
+ */
+
+const DEFAULT_SIZES = [10_000, 20_000, 100_000, 1_000_000];
+/** Beyond these sizes a method takes minutes (it is quadratic in the sets of similar size). */
+const QUADRATIC_LIMIT = 20_000;
+const METHODS: Algorithm[] = ['brute', 'length', 'prefix', 'position', 'auto'];
+
+const VOCABULARY = 1 << 20;
+const ZIPF_TABLE = 1 << 21;
+/** Odd, so multiplying by it modulo 2^20 is a bijection: a cheap shuffle of ids against frequency. */
+const RELABEL = 0x9e3779b1;
+
+/** mulberry32: small, fast and seedable; quality is ample for test data. */
+function random(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let x = a;
+    x = Math.imul(x ^ (x >>> 15), x | 1);
+    x ^= x + Math.imul(x ^ (x >>> 7), x | 61);
+    return ((x ^ (x >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/**
+ * A lookup table for Zipf draws: token r fills a share of the table proportional to 1/(r+1), so a
+ * uniform index into it is a Zipf draw. Quantised to 1/2^21: past rank ~150k each id gets one slot
+ * or none, which thins the rare tail but keeps its total weight.
+ */
+function zipfTable(): Int32Array {
+  let harmonic = 0;
+  for (let r = 0; r < VOCABULARY; r++) harmonic += 1 / (r + 1);
+  const table = new Int32Array(ZIPF_TABLE);
+  let filled = 0;
+  let cumulative = 0;
+  for (let r = 0; r < VOCABULARY && filled < ZIPF_TABLE; r++) {
+    cumulative += 1 / (r + 1) / harmonic;
+    const until = Math.min(ZIPF_TABLE, Math.round(cumulative * ZIPF_TABLE));
+    for (; filled < until; filled++) table[filled] = r;
+  }
+  // Rounding can leave a few slots at the end: give them to the rarest ids.
+  for (; filled < ZIPF_TABLE; filled++) table[filled] = VOCABULARY - 1 - (filled % 1024);
+  return table;
+}
+
+/**
+ * The synthetic collection: `count` sets of token ids (not yet ranked). Token ids are scrambled
+ * against their frequency rank so that the rarest-first ranking has real work to do.
+ */
+function generateCollection(count: number, seed: number): Int32Array[] {
+  const next = random(seed);
+  const table = zipfTable();
+  const stamp = new Int32Array(VOCABULARY).fill(-1);
+  const sets: Int32Array[] = new Array(count);
+  const draw = () => Math.imul(table[(next() * ZIPF_TABLE) | 0], RELABEL) & (VOCABULARY - 1);
+  for (let s = 0; s < count; s++) {
+    if (s > 10 && next() < 0.1) {
+      // planted near-duplicate of an earlier set
+      const source = sets[Math.floor(next() * s)];
+      const edits = Math.floor(next() * 0.15 * source.length);
+      const copy = Array.from(source);
+      for (let e = 0; e < edits; e++) {
+        const at = Math.floor(next() * copy.length);
+        if (next() < 0.5) copy.splice(at, 1);
+        else copy[at] = draw();
+      }
+      sets[s] = Int32Array.from(new Set(copy));
+      continue;
+    }
+    // log-normal size: median 80, sigma 0.7 (Box–Muller), clamped to 20..3000
+    const gauss = Math.sqrt(-2 * Math.log(1 - next())) * Math.cos(2 * Math.PI * next());
+    const size = Math.max(20, Math.min(3000, Math.round(80 * Math.exp(0.7 * gauss))));
+    const set = new Int32Array(size);
+    let filled = 0;
+    for (let attempt = 0; filled < size && attempt < size * 8; attempt++) {
+      const token = draw();
+      if (stamp[token] === s) continue;
+      stamp[token] = s;
+      set[filled++] = token;
+    }
+    sets[s] = filled === size ? set : set.slice(0, filled);
+  }
+  return sets;
+}
+
+interface CellResult {
+  size: number;
+  algorithm: Algorithm;
+  generateMs: number;
+  rankMs: number;
+  joinMs: number;
+  candidates: number;
+  verified: number;
+  results: number;
+  shingles: number;
+  peakRssMb: number;
+  beforeJoinRssMb: number;
+  profile: JoinProfile;
+}
+
+/** One cell, in this process: generate, rank, join; print one JSON line. */
+function runCell(size: number, algorithm: Algorithm, threshold: string, seed: number): CellResult {
+  let start = performance.now();
+  const raw = generateCollection(size, seed);
+  const generateMs = performance.now() - start;
+  start = performance.now();
+  const { ranked } = rankIntegerSets(raw);
+  const rankMs = performance.now() - start;
+  raw.length = 0;
+  let shingles = 0;
+  for (const set of ranked) shingles += set.length;
+  const beforeJoinRssMb = process.resourceUsage().maxRSS / 1024;
+  const stats = newJoinStats();
+  const profile: JoinProfile = { indexMs: 0, probeMs: 0, verifyMs: 0 };
+  start = performance.now();
+  selfJoin(ranked, parseThreshold(threshold), { algorithm, stats, profile: algorithm === 'brute' ? undefined : profile });
+  const joinMs = performance.now() - start;
+  return {
+    size,
+    algorithm,
+    generateMs,
+    rankMs,
+    joinMs,
+    ...stats,
+    shingles,
+    peakRssMb: process.resourceUsage().maxRSS / 1024,
+    beforeJoinRssMb,
+    profile,
+  };
+}
+
+function formatMs(ms: number): string {
+  return ms >= 10_000 ? `${(ms / 1000).toFixed(1)} s` : ms >= 1000 ? `${(ms / 1000).toFixed(2)} s` : `${ms.toFixed(0)} ms`;
+}
+
+function formatCount(n: number): string {
+  return n.toLocaleString('en-US');
+}
+
+function main(): void {
+  const { values } = parseArgs({
+    args: process.argv.slice(2),
+    options: {
+      sizes: { type: 'string' },
+      threshold: { type: 'string', default: '0.8' },
+      seed: { type: 'string', default: '7' },
+      methods: { type: 'string' },
+      child: { type: 'boolean', default: false },
+      'quadratic-limit': { type: 'string' },
+    },
+  });
+  const seed = Number(values.seed);
+  const threshold = values.threshold!;
+  if (values.child) {
+    const size = Number(values.sizes);
+    const algorithm = values.methods as Algorithm;
+    process.stdout.write(`${JSON.stringify(runCell(size, algorithm, threshold, seed))}\n`);
+    return;
+  }
+  const sizes = values.sizes ? values.sizes.split(',').map(Number) : DEFAULT_SIZES;
+  const methods = values.methods ? (values.methods.split(',') as Algorithm[]) : METHODS;
+  const quadraticLimit = values['quadratic-limit'] ? Number(values['quadratic-limit']) : QUADRATIC_LIMIT;
+  const self = fileURLToPath(import.meta.url);
+  const rows: CellResult[] = [];
+  const skipped: string[] = [];
+  process.stderr.write(`join benchmark: threshold ${threshold}, seed ${seed}, sizes ${sizes.join(', ')}\n`);
+  for (const size of sizes) {
+    for (const algorithm of methods) {
+      if ((algorithm === 'brute' || algorithm === 'length') && size > quadraticLimit) {
+        skipped.push(`${algorithm} at ${formatCount(size)}`);
+        continue;
+      }
+      process.stderr.write(`  ${formatCount(size)} sets, ${algorithm}… `);
+      const child = spawnSync(
+        process.execPath,
+        ['--import', 'tsx', '--max-old-space-size=6144', self, '--child', '--sizes', String(size), '--methods', algorithm, '--threshold', threshold, '--seed', String(seed)],
+        // cwd: the checkout, where `--import tsx` resolves
+        { encoding: 'utf8', maxBuffer: 1 << 20, cwd: path.resolve(path.dirname(self), '../..') },
+      );
+      if (child.status !== 0) {
+        process.stderr.write(`failed (exit ${child.status}):\n${child.stderr}\n`);
+        continue;
+      }
+      const row = JSON.parse(child.stdout.trim().split('\n').pop()!) as CellResult;
+      process.stderr.write(`${formatMs(row.joinMs)}\n`);
+      rows.push(row);
+    }
+  }
+
+  const out: string[] = [];
+  out.push(`Join benchmark, t = ${threshold}, seed ${seed}, ${process.version}, Zipf-like ids, log-normal sizes (median 80), 10% planted near-duplicates.`);
+  out.push('');
+  out.push('| sets | shingles | method | join time | vs brute | candidates | verified | results | peak RSS | RSS before join | index / probe / verify |');
+  out.push('| ---: | ---: | --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | --- |');
+  for (const row of rows) {
+    const brute = rows.find((r) => r.size === row.size && r.algorithm === 'brute');
+    const speedup = brute && row.algorithm !== 'brute' ? `${(brute.joinMs / row.joinMs).toFixed(0)}×` : '';
+    const { indexMs, probeMs, verifyMs } = row.profile;
+    const phases = indexMs + probeMs + verifyMs > 0 ? `${formatMs(indexMs)} / ${formatMs(probeMs)} / ${formatMs(verifyMs)}` : '';
+    out.push(
+      `| ${formatCount(row.size)} | ${formatCount(row.shingles)} | ${row.algorithm} | ${formatMs(row.joinMs)} | ${speedup} | ${formatCount(row.candidates)} | ` +
+        `${formatCount(row.verified)} | ${formatCount(row.results)} | ${row.peakRssMb.toFixed(0)} MB | ${row.beforeJoinRssMb.toFixed(0)} MB | ${phases} |`,
+    );
+  }
+  out.push('');
+  if (skipped.length > 0) out.push(`Not run (quadratic, minutes or more past ${formatCount(quadraticLimit)} sets): ${skipped.join(', ')}.`);
+  const setup = rows.filter((r) => r.algorithm === 'auto').map((r) => `${formatCount(r.size)}: generate ${formatMs(r.generateMs)}, rank ${formatMs(r.rankMs)}`);
+  if (setup.length > 0) out.push(`Outside the join time: ${setup.join('; ')}.`);
+  process.stdout.write(`${out.join('\n')}\n`);
+}
+
+main();
