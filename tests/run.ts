@@ -45,7 +45,8 @@ async function main(): Promise<number> {
   const vitest = spawnSync(
     `${projectRoot}/node_modules/.bin/vitest`,
     ['run', ...process.argv.slice(2)],
-    { stdio: 'inherit', cwd: projectRoot, env: { ...process.env, DATABASE_URL: url, DOUBLET_TEST: '1' } },
+    // vite's build() set NODE_ENV=production in this process; the suites run as tests (React's act() needs it)
+    { stdio: 'inherit', cwd: projectRoot, env: { ...process.env, NODE_ENV: 'test', DATABASE_URL: url, DOUBLET_TEST: '1' } },
   );
   if (!external) await dropDatabase(testDatabase);
   return vitest.status ?? 1;

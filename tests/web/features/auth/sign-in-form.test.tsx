@@ -1,14 +1,8 @@
 // @vitest-environment jsdom
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { cleanup, fireEvent, render, screen } from '@testing-library/react';
-import { afterEach, describe, expect, it, vi } from 'vitest';
+import { afterEach, describe, expect, it } from 'vitest';
 import { SignInForm } from '../../../../web/src/features/auth/components/sign-in-form';
-
-// tests/run.ts builds the client before vitest, and vite's build sets NODE_ENV=production in
-// that process, which vitest inherits: React would load its production build, which has no act().
-vi.hoisted(() => {
-  process.env.NODE_ENV = 'test';
-});
 
 afterEach(cleanup);
 
