@@ -2,6 +2,7 @@ import { findCopiesSchema, type FindCopiesResultDTO } from '../../shared/api/fin
 import { currentUser } from '../auth/current-user';
 import { findCopies } from '../commands/findCopies';
 import { authorize } from '../policies';
+import { presentFoundCopy } from '../presenters/found-copy';
 import { defineRoutes } from './define';
 import { parse } from './validate';
 
@@ -19,18 +20,7 @@ export const findCopiesRoutes = defineRoutes('/find-copies', [
       const copies = await findCopies({ organisationId: actor.organisationId, language: input.language, text: input.text, threshold });
       const answer: FindCopiesResultDTO = {
         threshold,
-        copies: copies.map((c) => ({
-          repositoryId: c.repositoryId,
-          repositoryName: c.repositoryName,
-          snapshotId: c.snapshotId,
-          snapshotLabel: c.snapshotLabel,
-          path: c.path,
-          name: c.name,
-          startLine: c.startLine,
-          endLine: c.endLine,
-          similarity: c.similarity,
-          snippetFragment: c.snippetFragment,
-        })),
+        copies: copies.map(presentFoundCopy),
       };
       res.json(answer);
     },
