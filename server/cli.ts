@@ -8,6 +8,7 @@ import { processIo, type CommandModule } from './cli/command';
  */
 const commands: Record<string, { describe: string; load: () => Promise<CommandModule> }> = {
   join: { describe: 'exact similarity join of integer sets, one set per line', load: () => import('./cli/join') },
+  scan: { describe: 'find clone classes in folders, in memory, and report them', load: () => import('./cli/scan') },
   import: { describe: 'load a local folder as a snapshot of a repository (database)', load: () => import('./cli/import') },
   classes: { describe: "print a snapshot's fragments, clone pairs and clone classes (database)", load: () => import('./cli/classes') },
   'find-copies': { describe: 'find every indexed copy of a snippet (database)', load: () => import('./cli/find-copies') },

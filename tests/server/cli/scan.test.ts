@@ -1,0 +1,145 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { run } from '../../../server/cli/scan';
+import { projectRoot } from '../../../server/config';
+import { scanReportSchema, type ScanReport } from '../../../shared/api/scan-report';
+import { captureIo } from './io';
+
+/**
+ * `doublet scan` on the invented Larkspur Freight fixture (tests/fixtures/scan/larkspur-freight,
+ * see its README): three planted clone pairs — an exact copy, a copy with renamed identifiers,
+ * a copy with a line added — among unrelated functions.
+ */
+const FIXTURE = path.join(projectRoot, 'tests/fixtures/scan/larkspur-freight');
+
+const PLANTED = [
+  ['src/billing/fees.ts:dockFeeFor', 'src/legacy/old-fees.ts:dockFeeFor', 1],
+  ['src/legacy/cargo-digest.ts:digestCargoList', 'src/reports/manifest.ts:summariseManifest', 2],
+  ['src/legacy/shift-bays.ts:allocateBaysForShift', 'src/yard/bays.ts:assignLoadingBays', 3],
+] as const;
+
+let dir: string;
+let report: ScanReport;
+let jsonRun: { code: number; stderr: string };
+
+function pairsByName(r: ScanReport) {
+  const label = new Map(r.fragments.map((f) => [f.id, `${f.file}:${f.name}`]));
+  return r.pairs.map((p) => [label.get(p.a), label.get(p.b), p.type]);
+}
+
+beforeAll(async () => {
+  dir = fs.mkdtempSync(path.join(os.tmpdir(), 'doublet-scan-'));
+  const io = captureIo();
+  const out = path.join(dir, 'report.json');
+  const code = await run([FIXTURE, '--format', 'json', '--out', out], io);
+  jsonRun = { code, stderr: io.stderr() };
+  report = JSON.parse(fs.readFileSync(out, 'utf8')) as ScanReport;
+});
+afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
+
+describe('doublet scan', () => {
+  it('finds each planted clone pair with its clone type, and nothing else', () => {
+    expect(jsonRun.code).toBe(0);
+    expect(pairsByName(report)).toEqual(PLANTED);
+    expect(report.classes.map((c) => c.members.length)).toEqual([2, 2, 2]);
+  });
+
+  it('writes JSON that the shared schema accepts, with paths relative to the folder', () => {
+    const parsed = scanReportSchema.safeParse(report);
+    expect(parsed.success, JSON.stringify(parsed.error?.issues)).toBe(true);
+    expect(report.settings).toMatchObject({ threshold: 0.8, minTokens: 50, shingleSize: 3 });
+    for (const fragment of report.fragments) {
+      expect(path.isAbsolute(fragment.file)).toBe(false);
+      expect(fs.existsSync(path.join(FIXTURE, fragment.file))).toBe(true);
+      expect(fragment.tokens).toBeGreaterThanOrEqual(50);
+    }
+    // the clone ratio is the planted fragments' share of all tokens
+    const planted = new Set<number>(report.pairs.flatMap((p) => [p.a, p.b]));
+    const cloned = report.fragments.filter((f) => planted.has(f.id)).reduce((sum, f) => sum + f.tokens, 0);
+    const total = report.fragments.reduce((sum, f) => sum + f.tokens, 0);
+    expect(report.stats).toMatchObject({ clonedTokens: cloned, tokens: total, pairs: 3, classes: 3 });
+    expect(report.stats.cloneRatio).toBeCloseTo(cloned / total, 12);
+    expect(jsonRun.stderr).toMatch(/3 clone pairs, 3 clone classes/);
+  });
+
+  it('writes SARIF 2.1.0: one result per class member, partners as related locations', async () => {
+    const io = captureIo();
+    expect(await run([FIXTURE, '--format', 'sarif'], io)).toBe(0);
+    const sarif = JSON.parse(io.stdout());
+    expect(sarif.version).toBe('2.1.0');
+    expect(sarif.$schema).toMatch(/sarif-schema-2\.1\.0\.json$/);
+    expect(sarif.runs).toHaveLength(1);
+    const [runLog] = sarif.runs;
+    expect(runLog.tool.driver.name).toBe('doublet');
+    expect(runLog.tool.driver.rules.map((r: { id: string }) => r.id)).toEqual(['clone-class-member']);
+    expect(runLog.results).toHaveLength(6);
+    for (const result of runLog.results) {
+      expect(result.ruleId).toBe('clone-class-member');
+      expect(typeof result.message.text).toBe('string');
+      expect(result.locations).toHaveLength(1);
+      expect(result.locations[0].physicalLocation.artifactLocation.uri).not.toMatch(/^\//);
+      expect(result.locations[0].physicalLocation.region.startLine).toBeGreaterThan(0);
+      // the one related location is the planted partner
+      const here = result.locations[0].physicalLocation.artifactLocation.uri;
+      const partner = PLANTED.map(([a, b]) => [a.split(':')[0], b.split(':')[0]]).find((files) => files.includes(here))!;
+      expect(result.relatedLocations).toHaveLength(1);
+      expect(result.relatedLocations[0].physicalLocation.artifactLocation.uri).toBe(partner[0] === here ? partner[1] : partner[0]);
+    }
+    const uris = runLog.results.map((r: { locations: { physicalLocation: { artifactLocation: { uri: string } } }[] }) => r.locations[0].physicalLocation.artifactLocation.uri);
+    expect(new Set(uris)).toEqual(new Set(PLANTED.flatMap(([a, b]) => [a.split(':')[0], b.split(':')[0]])));
+  });
+
+  it('prints a text summary, largest classes first', async () => {
+    const io = captureIo();
+    expect(await run([FIXTURE], io)).toBe(0);
+    const text = io.stdout();
+    expect(text).toMatch(/clone ratio \d+\.\d%: [\d,]+ tokens in 3 clone pairs, 3 clone classes/);
+    expect(text).toContain('src/yard/bays.ts:14-33  assignLoadingBays');
+    expect(text.indexOf('Clone class 1')).toBeLessThan(text.indexOf('Clone class 3'));
+  });
+
+  it('exits 1 when the clone ratio is above --budget, 0 at or under it', async () => {
+    const ratio = report.stats.cloneRatio;
+    const over = captureIo();
+    expect(await run([FIXTURE, '--format', 'json', '--budget', (Math.floor(ratio * 100) / 100).toFixed(2)], over)).toBe(1);
+    expect(over.stderr()).toMatch(/above the budget/);
+    const under = captureIo();
+    expect(await run([FIXTURE, '--format', 'csv', '--budget', `${Math.ceil(ratio * 100)}%`], under)).toBe(0);
+    expect(under.stdout().split('\r\n')[0]).toBe('class,similarity,type,file_a,name_a,start_line_a,end_line_a,file_b,name_b,start_line_b,end_line_b');
+    expect(under.stdout().trim().split('\r\n')).toHaveLength(4);
+  });
+
+  it('scans several folders at once, naming each by its folder', async () => {
+    const io = captureIo();
+    const code = await run([path.join(FIXTURE, 'src/billing'), path.join(FIXTURE, 'src/legacy'), '--format', 'json'], io);
+    expect(code).toBe(0);
+    const both = scanReportSchema.parse(JSON.parse(io.stdout()));
+    expect(pairsByName(both)).toEqual([['billing/fees.ts:dockFeeFor', 'legacy/old-fees.ts:dockFeeFor', 1]]);
+  });
+
+  describe('edge cases', () => {
+    it('reports a missing folder (exit 1) and bad options (exit 2) without output', async () => {
+      const missing = captureIo();
+      expect(await run([path.join(dir, 'nowhere')], missing)).toBe(1);
+      expect(missing.stderr()).toMatch(/cannot scan .*nowhere/);
+      expect(missing.stdout()).toBe('');
+      for (const args of [[], [FIXTURE, '--format', 'xml'], [FIXTURE, '--budget', '1.5'], [FIXTURE, '--min-tokens', '0'], [FIXTURE, '--threshold', '0']]) {
+        const io = captureIo();
+        expect(await run(args, io), args.join(' ')).toBe(2);
+        expect(io.stdout()).toBe('');
+        expect(io.stderr()).toContain('usage: doublet scan');
+      }
+    });
+
+    it('finds nothing in a folder without clones', async () => {
+      const io = captureIo();
+      expect(await run([path.join(FIXTURE, 'tools'), '--format', 'json'], io)).toBe(0);
+      const alone = scanReportSchema.parse(JSON.parse(io.stdout()));
+      expect(alone.fragments).toHaveLength(1);
+      expect(alone.pairs).toEqual([]);
+      expect(alone.stats.cloneRatio).toBe(0);
+    });
+  });
+});
