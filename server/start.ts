@@ -1,5 +1,6 @@
 import { build } from 'vite';
 import { demoSignInLines, seedDemo } from './commands/seedDemo';
+import { seedDemoRepositories } from './commands/seedDemoRepositories';
 import { projectRoot } from './config';
 import { openDatabase } from './db';
 import { serve } from './index';
@@ -10,7 +11,11 @@ async function main() {
   const sequelize = await openDatabase();
   initModels(sequelize);
   const seeded = await seedDemo();
-  if (seeded) console.log(`Seeded the demo organisation "${seeded.name}". Demo sign-ins (role, e-mail, password):`);
+  if (seeded) {
+    console.log(`Seeding the demo organisation "${seeded.name}" with its repositories…`);
+    for (const line of await seedDemoRepositories(seeded)) console.log(line);
+    console.log('Demo sign-ins (role, e-mail, password):');
+  }
   else console.log('Demo sign-ins, if the demo organisation is still there (role, e-mail, password):');
   for (const line of demoSignInLines()) console.log(line);
   console.log('Building the client…');

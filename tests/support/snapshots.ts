@@ -8,8 +8,8 @@ import { parseThreshold } from '../../server/matching/threshold';
 import type { Repository } from '../../server/models/Repository';
 import { buildOrganisation } from './factories';
 
-/** Folder of the invented release fixtures (v1, v2, v3 of a rail-freight codebase). */
-export const RELEASES = path.resolve(import.meta.dirname, '../fixtures/releases');
+/** Folder of the invented demo releases (v1, v2, v3 of a rail-freight codebase). */
+export const RELEASES = path.resolve(import.meta.dirname, '../../server/demo/freight-platform');
 
 /** A repository in a new organisation (or the one given), with a unique name. */
 export async function buildRepository(input: RepositoryInput & { organisationId?: string } = {}): Promise<Repository> {
