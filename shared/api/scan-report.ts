@@ -54,6 +54,11 @@ export const reportFragmentSchema = z.object({
   startLine: z.number().int().positive(),
   endLine: z.number().int().positive(),
   tokens: count,
+  /**
+   * Set only on fragments of other repositories (`doublet classes --cross`): "name@label" of the
+   * snapshot they stand in. Stats and classes cover the report's own fragments alone.
+   */
+  repository: z.string().optional(),
 });
 
 /** A clone pair (a < b, fragment ids) with its Jaccard similarity and clone type. */
