@@ -2,13 +2,17 @@ import { spawnSync } from 'node:child_process';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
+import { analyzeFiles } from '../../analyzers';
+import { readFolder } from '../ingest/folder';
 import { newJoinStats, selfJoin, type Algorithm, type JoinProfile } from '../matching/join';
-import { rankIntegerSets } from '../matching/order';
+import { rankIntegerSets, rankShingles } from '../matching/order';
 import { parseThreshold } from '../matching/threshold';
 
 /**
- * `npm run bench:join [-- --sizes 10000,20000 --threshold 0.8 --seed 7]`: the join's figures on
- * synthetic collections, printed as a Markdown table. Not a test: it measures, it does not judge.
+ * `npm run bench:join [-- --sizes 10000,20000 --threshold 0.8 --seed 7 --methods prefix,auto]`: the
+ * join's figures on synthetic collections, printed as a Markdown table. Not a test: it measures,
+ * it does not judge. `--real DIR[,DIR]` measures real shingle sets instead: the functions of those
+ * folders, analysed as `doublet scan` does.
  *
  * Each (size, method) cell runs in a child process of its own, so that its peak memory (the
  * process's maximum resident set) is its own and not left over from an earlier cell. The
@@ -111,6 +115,8 @@ interface CellResult {
   generateMs: number;
   rankMs: number;
   joinMs: number;
+  /** CPU time of the join (user + system): what the join costs when the machine is shared. */
+  joinCpuMs: number;
   candidates: number;
   verified: number;
   results: number;
@@ -120,35 +126,64 @@ interface CellResult {
   profile: JoinProfile;
 }
 
-/** One cell, in this process: generate, rank, join; print one JSON line. */
-function runCell(size: number, algorithm: Algorithm, threshold: string, seed: number): CellResult {
+/** One cell, in this process: generate (or analyse real folders), rank, join; print one JSON line. */
+async function runCell(size: number, algorithm: Algorithm, threshold: string, seed: number, real?: string[]): Promise<CellResult> {
   let start = performance.now();
-  const raw = generateCollection(size, seed);
-  const generateMs = performance.now() - start;
-  start = performance.now();
-  const { ranked } = rankIntegerSets(raw);
-  const rankMs = performance.now() - start;
-  raw.length = 0;
+  let ranked: Int32Array[];
+  let generateMs: number;
+  let rankMs: number;
+  if (real) {
+    const shingleSets = await analyseFolders(real);
+    generateMs = performance.now() - start;
+    start = performance.now();
+    ranked = rankShingles(shingleSets).ranked;
+    rankMs = performance.now() - start;
+    size = ranked.length;
+  } else {
+    const raw = generateCollection(size, seed);
+    generateMs = performance.now() - start;
+    start = performance.now();
+    ranked = rankIntegerSets(raw).ranked;
+    rankMs = performance.now() - start;
+    raw.length = 0;
+  }
   let shingles = 0;
   for (const set of ranked) shingles += set.length;
   const beforeJoinRssMb = process.resourceUsage().maxRSS / 1024;
   const stats = newJoinStats();
   const profile: JoinProfile = { indexMs: 0, probeMs: 0, verifyMs: 0 };
   start = performance.now();
+  const cpu = process.cpuUsage();
   selfJoin(ranked, parseThreshold(threshold), { algorithm, stats, profile: algorithm === 'brute' ? undefined : profile });
   const joinMs = performance.now() - start;
+  const { user, system } = process.cpuUsage(cpu);
   return {
     size,
     algorithm,
     generateMs,
     rankMs,
     joinMs,
+    joinCpuMs: (user + system) / 1000,
     ...stats,
     shingles,
     peakRssMb: process.resourceUsage().maxRSS / 1024,
     beforeJoinRssMb,
     profile,
   };
+}
+
+/**
+ * Real shingle sets: the functions (≥ 50 tokens, 3-shingles) of the given folders, analysed by
+ * the analyzers exactly as `doublet scan` does.
+ */
+async function analyseFolders(folders: string[]): Promise<string[][]> {
+  const sets: string[][] = [];
+  for (const folder of folders) {
+    const { files } = await readFolder(folder);
+    const analysed = await analyzeFiles(files, { minTokens: 50, shingleSize: 3 });
+    for (const file of analysed.files) for (const fragment of file.fragments) sets.push(fragment.shingles);
+  }
+  return sets;
 }
 
 function formatMs(ms: number): string {
@@ -159,7 +194,7 @@ function formatCount(n: number): string {
   return n.toLocaleString('en-US');
 }
 
-function main(): void {
+async function main(): Promise<void> {
   const { values } = parseArgs({
     args: process.argv.slice(2),
     options: {
@@ -169,17 +204,20 @@ function main(): void {
       methods: { type: 'string' },
       child: { type: 'boolean', default: false },
       'quadratic-limit': { type: 'string' },
+      real: { type: 'string' },
     },
   });
+  const real = values.real?.split(',');
   const seed = Number(values.seed);
   const threshold = values.threshold!;
   if (values.child) {
     const size = Number(values.sizes);
     const algorithm = values.methods as Algorithm;
-    process.stdout.write(`${JSON.stringify(runCell(size, algorithm, threshold, seed))}\n`);
+    process.stdout.write(`${JSON.stringify(await runCell(size, algorithm, threshold, seed, real))}\n`);
     return;
   }
-  const sizes = values.sizes ? values.sizes.split(',').map(Number) : DEFAULT_SIZES;
+  // With --real the collection is the analysed folders: one "size", whatever it turns out to be.
+  const sizes = real ? [0] : values.sizes ? values.sizes.split(',').map(Number) : DEFAULT_SIZES;
   const methods = values.methods ? (values.methods.split(',') as Algorithm[]) : METHODS;
   const quadraticLimit = values['quadratic-limit'] ? Number(values['quadratic-limit']) : QUADRATIC_LIMIT;
   const self = fileURLToPath(import.meta.url);
@@ -188,14 +226,29 @@ function main(): void {
   process.stderr.write(`join benchmark: threshold ${threshold}, seed ${seed}, sizes ${sizes.join(', ')}\n`);
   for (const size of sizes) {
     for (const algorithm of methods) {
-      if ((algorithm === 'brute' || algorithm === 'length') && size > quadraticLimit) {
+      if (!real && (algorithm === 'brute' || algorithm === 'length') && size > quadraticLimit) {
         skipped.push(`${algorithm} at ${formatCount(size)}`);
         continue;
       }
       process.stderr.write(`  ${formatCount(size)} sets, ${algorithm}… `);
       const child = spawnSync(
         process.execPath,
-        ['--import', 'tsx', '--max-old-space-size=6144', self, '--child', '--sizes', String(size), '--methods', algorithm, '--threshold', threshold, '--seed', String(seed)],
+        [
+          '--import',
+          'tsx',
+          '--max-old-space-size=6144',
+          self,
+          '--child',
+          '--sizes',
+          String(size),
+          '--methods',
+          algorithm,
+          '--threshold',
+          threshold,
+          '--seed',
+          String(seed),
+          ...(real ? ['--real', real.join(',')] : []),
+        ],
         // cwd: the checkout, where `--import tsx` resolves
         { encoding: 'utf8', maxBuffer: 1 << 20, cwd: path.resolve(path.dirname(self), '../..') },
       );
@@ -204,31 +257,38 @@ function main(): void {
         continue;
       }
       const row = JSON.parse(child.stdout.trim().split('\n').pop()!) as CellResult;
-      process.stderr.write(`${formatMs(row.joinMs)}\n`);
+      process.stderr.write(`${formatMs(row.joinMs)} (${formatCount(row.size)} sets)\n`);
       rows.push(row);
     }
   }
 
   const out: string[] = [];
-  out.push(`Join benchmark, t = ${threshold}, seed ${seed}, ${process.version}, Zipf-like ids, log-normal sizes (median 80), 10% planted near-duplicates.`);
+  out.push(
+    real
+      ? `Join benchmark, t = ${threshold}, ${process.version}, real functions (≥ 50 tokens, 3-shingles) of: ${real.join(', ')}.`
+      : `Join benchmark, t = ${threshold}, seed ${seed}, ${process.version}, Zipf-like ids, log-normal sizes (median 80), 10% planted near-duplicates.`,
+  );
   out.push('');
-  out.push('| sets | shingles | method | join time | vs brute | candidates | verified | results | peak RSS | RSS before join | index / probe / verify |');
-  out.push('| ---: | ---: | --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | --- |');
+  out.push('| sets | shingles | method | join time | join CPU | vs brute | candidates | verified | results | peak RSS | RSS before join | index / probe / verify |');
+  out.push('| ---: | ---: | --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | --- |');
   for (const row of rows) {
     const brute = rows.find((r) => r.size === row.size && r.algorithm === 'brute');
     const speedup = brute && row.algorithm !== 'brute' ? `${(brute.joinMs / row.joinMs).toFixed(0)}×` : '';
     const { indexMs, probeMs, verifyMs } = row.profile;
     const phases = indexMs + probeMs + verifyMs > 0 ? `${formatMs(indexMs)} / ${formatMs(probeMs)} / ${formatMs(verifyMs)}` : '';
     out.push(
-      `| ${formatCount(row.size)} | ${formatCount(row.shingles)} | ${row.algorithm} | ${formatMs(row.joinMs)} | ${speedup} | ${formatCount(row.candidates)} | ` +
+      `| ${formatCount(row.size)} | ${formatCount(row.shingles)} | ${row.algorithm} | ${formatMs(row.joinMs)} | ${formatMs(row.joinCpuMs)} | ${speedup} | ${formatCount(row.candidates)} | ` +
         `${formatCount(row.verified)} | ${formatCount(row.results)} | ${row.peakRssMb.toFixed(0)} MB | ${row.beforeJoinRssMb.toFixed(0)} MB | ${phases} |`,
     );
   }
   out.push('');
   if (skipped.length > 0) out.push(`Not run (quadratic, minutes or more past ${formatCount(quadraticLimit)} sets): ${skipped.join(', ')}.`);
   const setup = rows.filter((r) => r.algorithm === 'auto').map((r) => `${formatCount(r.size)}: generate ${formatMs(r.generateMs)}, rank ${formatMs(r.rankMs)}`);
-  if (setup.length > 0) out.push(`Outside the join time: ${setup.join('; ')}.`);
+  if (setup.length > 0) out.push(`Outside the join time: ${setup.join('; ')}${real ? ' (generate = read and analyse the folders)' : ''}.`);
   process.stdout.write(`${out.join('\n')}\n`);
 }
 
-main();
+main().catch((error: unknown) => {
+  process.stderr.write(`${error instanceof Error ? (error.stack ?? error.message) : String(error)}\n`);
+  process.exitCode = 1;
+});

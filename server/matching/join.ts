@@ -173,15 +173,19 @@ function selfJoinByLength(sets: readonly Int32Array[], t: Threshold, stats?: Joi
 
 /**
  * The inverted index of prefixes in compressed rows: entries of id w are
- * [listStart[w], listStart[w+1]), each with the set (in size order), its size and the position
- * of w in the set. Entries are appended in size order, so each list is sorted by size.
+ * [listStart[w], listStart[w+1]). Entry e is stored interleaved at entries[3e..3e+2] as (size of
+ * the set, the set's number in size order, position of w in the set), so walking a list reads
+ * one cache line instead of three arrays. Entries are appended in size order, so each list is
+ * sorted by size.
  */
 interface PrefixIndex {
   listStart: Int32Array;
-  entrySet: Int32Array;
-  entrySize: Int32Array;
-  entryPosition: Int32Array;
+  entries: Int32Array;
 }
+
+const SIZE = 0;
+const SET = 1;
+const POSITION = 2;
 
 function buildPrefixIndex(
   sets: readonly Int32Array[],
@@ -199,20 +203,18 @@ function buildPrefixIndex(
   }
   for (let w = 1; w <= vocabulary; w++) listStart[w] += listStart[w - 1];
   const fill = listStart.slice(0, vocabulary);
-  const entrySet = new Int32Array(total);
-  const entrySize = new Int32Array(total);
-  const entryPosition = new Int32Array(total);
+  const entries = new Int32Array(total * 3);
   for (let k = 0; k < order.length; k++) {
     const set = sets[order[k]];
     const prefix = prefixOf(set.length);
     for (let i = 0; i < prefix; i++) {
-      const e = fill[set[i]]++;
-      entrySet[e] = k;
-      entrySize[e] = set.length;
-      entryPosition[e] = i;
+      const e = 3 * fill[set[i]]++;
+      entries[e + SIZE] = set.length;
+      entries[e + SET] = k;
+      entries[e + POSITION] = i;
     }
   }
-  return { listStart, entrySet, entrySize, entryPosition };
+  return { listStart, entries };
 }
 
 /**
@@ -254,8 +256,7 @@ function selfJoinByPrefix(
   const order = bySize(sets);
   let vocabulary = 0;
   for (const set of sets) if (set.length > 0 && set[set.length - 1] + 1 > vocabulary) vocabulary = set[set.length - 1] + 1;
-  const index = buildPrefixIndex(sets, order, (size) => size - minOverlap(t, size, size) + 1, vocabulary);
-  const { listStart, entrySet, entrySize, entryPosition } = index;
+  const { listStart, entries } = buildPrefixIndex(sets, order, (size) => size - minOverlap(t, size, size) + 1, vocabulary);
   // Sizes only grow along the processing order, so the lower size bound does too: each list's
   // too-small head is skipped once and for all by moving its start.
   const listHead = listStart.slice(0, vocabulary);
@@ -274,19 +275,19 @@ function selfJoinByPrefix(
     for (let i = 0; i < probe; i++) {
       const w = x[i];
       if (w >= vocabulary) continue;
-      const end = listStart[w + 1];
-      let e = listHead[w];
-      while (e < end && entrySize[e] < lower) e++;
-      listHead[w] = e;
-      for (; e < end; e++) {
-        const y = entrySet[e];
+      const end = 3 * listStart[w + 1];
+      let e = 3 * listHead[w];
+      while (e < end && entries[e + SIZE] < lower) e += 3;
+      listHead[w] = e / 3;
+      for (; e < end; e += 3) {
+        const y = entries[e + SET];
         if (y >= k) break;
         const c = count[y];
         if (c < 0) continue;
         if (c === 0) touched[touchedCount++] = y;
-        const j = entryPosition[e];
+        const j = entries[e + POSITION];
         if (usePosition) {
-          const sizeY = entrySize[e];
+          const sizeY = entries[e + SIZE];
           const restX = sizeX - i - 1;
           const restY = sizeY - j - 1;
           if (c + 1 + (restX < restY ? restX : restY) < minOverlap(t, sizeX, sizeY)) {
@@ -327,13 +328,13 @@ function lap(profile: JoinProfile, phase: keyof JoinProfile, since: number): num
   return now;
 }
 
-/** First entry in [from, to) of a size-sorted run whose size is ≥ lower. */
-function firstAtLeast(sizes: Int32Array, from: number, to: number, lower: number): number {
+/** First entry number in [from, to) of a size-sorted list whose size is ≥ lower. */
+function firstAtLeast(entries: Int32Array, from: number, to: number, lower: number): number {
   let lo = from;
   let hi = to;
   while (lo < hi) {
     const mid = (lo + hi) >>> 1;
-    if (sizes[mid] < lower) lo = mid + 1;
+    if (entries[3 * mid + SIZE] < lower) lo = mid + 1;
     else hi = mid;
   }
   return lo;
@@ -354,7 +355,13 @@ function joinAgainstByLength(
     const x = probe[a];
     if (x.length === 0) continue;
     const [lower, upper] = sizeBounds(t, x.length);
-    for (let m = firstAtLeast(sizes, 0, sizes.length, lower); m < sizes.length && sizes[m] <= upper; m++) {
+    let m = 0;
+    for (let hi = sizes.length; m < hi; ) {
+      const mid = (m + hi) >>> 1;
+      if (sizes[mid] < lower) m = mid + 1;
+      else hi = mid;
+    }
+    for (; m < sizes.length && sizes[m] <= upper; m++) {
       const y = indexed[order[m]];
       candidates++;
       const overlap = overlapAtLeast(x, y, minOverlap(t, x.length, y.length));
@@ -385,12 +392,7 @@ function joinAgainstByPrefix(
   const order = bySize(indexed);
   let vocabulary = 0;
   for (const set of indexed) if (set.length > 0 && set[set.length - 1] + 1 > vocabulary) vocabulary = set[set.length - 1] + 1;
-  const { listStart, entrySet, entrySize, entryPosition } = buildPrefixIndex(
-    indexed,
-    order,
-    (size) => prefixLength(t, size),
-    vocabulary,
-  );
+  const { listStart, entries } = buildPrefixIndex(indexed, order, (size) => prefixLength(t, size), vocabulary);
   const { count, lastX, lastY, touched } = newCandidates(order.length);
   if (profile) clock = lap(profile, 'indexMs', clock);
   const pairs: SetPair[] = [];
@@ -407,15 +409,15 @@ function joinAgainstByPrefix(
     for (let i = 0; i < prefix; i++) {
       const w = x[i];
       if (w >= vocabulary) continue;
-      const end = listStart[w + 1];
-      for (let e = firstAtLeast(entrySize, listStart[w], end, lower); e < end; e++) {
-        const sizeY = entrySize[e];
+      const end = 3 * listStart[w + 1];
+      for (let e = 3 * firstAtLeast(entries, listStart[w], listStart[w + 1], lower); e < end; e += 3) {
+        const sizeY = entries[e + SIZE];
         if (sizeY > upper) break;
-        const y = entrySet[e];
+        const y = entries[e + SET];
         const c = count[y];
         if (c < 0) continue;
         if (c === 0) touched[touchedCount++] = y;
-        const j = entryPosition[e];
+        const j = entries[e + POSITION];
         if (usePosition) {
           const restX = sizeX - i - 1;
           const restY = sizeY - j - 1;
