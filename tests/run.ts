@@ -1,5 +1,7 @@
 import { execFileSync, spawnSync } from 'node:child_process';
 import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import { build } from 'vite';
 import { projectRoot } from '../server/config';
 import { connect, disconnect } from '../server/db/connection';
@@ -42,14 +44,24 @@ async function main(): Promise<number> {
 
   await build({ configFile: `${projectRoot}/vite.config.ts`, logLevel: 'warn' });
 
+  const summaryFile = path.join(os.tmpdir(), `doublet-test-summary-${process.pid}.json`);
   const vitest = spawnSync(
     `${projectRoot}/node_modules/.bin/vitest`,
-    ['run', ...process.argv.slice(2)],
+    ['run', '--reporter=default', '--reporter=json', `--outputFile.json=${summaryFile}`, ...process.argv.slice(2)],
     // vite's build() set NODE_ENV=production in this process; the suites run as tests (React's act() needs it)
     { stdio: 'inherit', cwd: projectRoot, env: { ...process.env, NODE_ENV: 'test', DATABASE_URL: url, DOUBLET_TEST: '1' } },
   );
   if (!external) await dropDatabase(testDatabase);
+  printSummary(summaryFile);
   return vitest.status ?? 1;
+}
+
+/** One plain closing line, `N passed, N failed`, that any CI reader understands. */
+function printSummary(file: string) {
+  if (!fs.existsSync(file)) return;
+  const summary = JSON.parse(fs.readFileSync(file, 'utf8')) as { numPassedTests: number; numFailedTests: number };
+  fs.rmSync(file);
+  console.log(`${summary.numPassedTests} passed, ${summary.numFailedTests} failed`);
 }
 
 main().then(

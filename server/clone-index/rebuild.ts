@@ -36,8 +36,12 @@ export async function rebuildIndex(): Promise<RebuildResult> {
         where ss.size > 0`,
     );
     // Two steps, each into a range disjoint from the values it replaces, so the unique rank
-    // constraint never sees a transient duplicate.
-    const [{ offset }] = await select<{ offset: number }>(tx, 'select coalesce(max(rank), 0) + 1 as offset from shingles');
+    // constraint never sees a transient duplicate: first above every old rank, then down to
+    // 0..n−1, which must lie below the first step's range too (old ranks may be negative).
+    const [{ offset }] = await select<{ offset: number }>(
+      tx,
+      'select greatest(coalesce(max(rank), 0) + 1, count(*))::int as offset from shingles',
+    );
     await execute(tx, 'update shingles s set rank = m.new_rank + $1 from rank_map m where m.old_rank = s.rank', [offset]);
     await execute(tx, 'update shingles set rank = rank - $1', [offset]);
     await execute(tx, 'delete from prefix_entries');

@@ -122,6 +122,18 @@ describe('addSets', () => {
   });
 
   describe('edge cases', () => {
+    it('rebuilds again after a load has added ranks below the rebuilt ones', async () => {
+      // After a rebuild ranks are 0..n−1; a load then adds new shingles below 0, so the next
+      // rebuild's 0..n'−1 reaches above the old maximum: its rank update must not collide.
+      const namespace = ns();
+      const batch = (from: number): Logical => Array.from({ length: 30 }, (_, i) => Array.from({ length: 12 }, (_, j) => from + i * 12 + j));
+      await load(batch(0), namespace, 1000);
+      await rebuildIndex();
+      await load(batch(10_000), namespace, 1000);
+      const result = await rebuildIndex();
+      expect(result.prefixEntries).toBeGreaterThan(0);
+    });
+
     it('stores an empty set without indexing it: it pairs with nothing', async () => {
       const ids = await load([[], [], [1]], ns(), 1000);
       expect(ids[0]).toBe(ids[1]);

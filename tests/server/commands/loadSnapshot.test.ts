@@ -33,6 +33,9 @@ async function bruteForcePairs(folder: string, options: { threshold: number; shi
 
 const release = (v: string) => path.join(RELEASES, v);
 
+/** Loads run the parse pool and PostgreSQL; on a busy 2-core machine a few take tens of seconds. */
+const SLOW = 120_000;
+
 describe('loadSnapshot', () => {
   it('gives the pairs brute force finds on the invented release tree', async () => {
     const repository = await buildRepository();
@@ -41,7 +44,7 @@ describe('loadSnapshot', () => {
     expect(pairs).toEqual(await bruteForcePairs(release('v1'), { threshold: 0.8 }));
     expect(pairs.length).toBeGreaterThanOrEqual(2);
     expect(loaded.pairCount).toBe(pairs.length);
-  });
+  }, SLOW);
 
   it('gives the pairs brute force finds on real code: sequelize 6.37.8 dialects from node_modules', async () => {
     // Real code from a published package: the SQL dialects of sequelize@6.37.8 repeat much of each other.
@@ -51,7 +54,7 @@ describe('loadSnapshot', () => {
     const pairs = await describedPairs(loaded.snapshotId, 0.7);
     expect(pairs).toEqual(await bruteForcePairs(folder, { threshold: 0.7 }));
     expect(pairs.length).toBeGreaterThan(10);
-  });
+  }, SLOW);
 
   it('ends with the same pairs whether three releases load one after another or the last alone', async () => {
     const stepwise = await buildRepository();
@@ -62,7 +65,7 @@ describe('loadSnapshot', () => {
     expect(await describedPairs(last.snapshotId, 0.8)).toEqual(await describedPairs(only.snapshotId, 0.8));
     expect(last.classCount).toBe(only.classCount);
     expect(last.cloneRatio).toBe(only.cloneRatio);
-  });
+  }, SLOW);
 
   it('ends with the same pairs before and after an index rebuild', async () => {
     const repository = await buildRepository({ shingleSize: 4 });
@@ -71,7 +74,7 @@ describe('loadSnapshot', () => {
     await rebuildIndex();
     const after = await loadFolder(repository, release('v3'), 'v3');
     expect(await describedPairs(after.snapshotId, 0.8)).toEqual(await bruteForcePairs(release('v3'), { threshold: 0.8, shingleSize: 4 }));
-  });
+  }, SLOW);
 
   it('gives the same pairs with probe batches of 1, 7 and 1000 new sets', async () => {
     // Each batch size runs with its own shingle size, so its sets are new to the index and really probed.
@@ -81,7 +84,7 @@ describe('loadSnapshot', () => {
       expect(loaded.newSetCount).toBeGreaterThan(0);
       expect(await describedPairs(loaded.snapshotId, 0.6)).toEqual(await bruteForcePairs(release('v3'), { threshold: 0.6, shingleSize }));
     }
-  });
+  }, SLOW);
 
   it('analyses no file again and adds no set when an unchanged tree loads under a new label', async () => {
     const repository = await buildRepository({ shingleSize: 8 });
@@ -92,7 +95,7 @@ describe('loadSnapshot', () => {
     expect(again.analyzedFileCount).toBe(0);
     expect(again.newSetCount).toBe(0);
     expect(await describedPairs(again.snapshotId, 0.8)).toEqual(await describedPairs(first.snapshotId, 0.8));
-  });
+  }, SLOW);
 
   it('compares each class with the previous snapshot: drifted, grown, unchanged and gone', async () => {
     const repository = await buildRepository();
@@ -119,7 +122,7 @@ describe('loadSnapshot', () => {
       [v3.snapshotId],
     );
     expect(metrics).toEqual({ gone: 1, new: 0 });
-  });
+  }, SLOW);
 
   describe('edge cases', () => {
     it('refuses a label the repository already has, and keeps what is stored', async () => {
