@@ -1,21 +1,10 @@
-import type { ClassListQuery, ClassStatus } from '../../shared/api/snapshots';
+import type { ClassListQuery, CloneClassSummaryDTO } from '../../shared/api/snapshots';
 import { parseThreshold } from '../matching/threshold';
 import { clonePairsWithin, type Instance } from './snapshot-pairs';
 import { select } from './sql';
 
-/** A class row with its member paths, as lists show it. */
-export interface ClassRow {
-  id: number;
-  snapshotId: number;
-  size: number;
-  tokens: number;
-  minSimilarity: number;
-  maxSimilarity: number;
-  cloneType: number;
-  language: string;
-  status: ClassStatus;
-  paths: string[];
-}
+/** A class row with its member paths, as lists show it: the columns the API's summary has. */
+export type ClassRow = CloneClassSummaryDTO;
 
 const SORT_COLUMNS: Record<ClassListQuery['sort'], string> = {
   size: 'c.size',
