@@ -1,14 +1,11 @@
 import { minOverlap, overlapAtLeast, prefixLength, reaches, sizeBounds, type Threshold } from '../matching/threshold';
 
-/** One row of a probe: a prefix entry of an indexed set that shares a rank with a probe set's prefix. */
-export interface ProbeHit {
+/** A candidate of a probe: an indexed set that shares a rank with the probe's prefix and passed the position filter. */
+export interface ProbeCandidate {
   /** index of the probe set in the batch */
   probe: number;
-  /** position of the shared rank in the probe set */
-  probePosition: number;
   setId: number;
-  /** position of the shared rank in the indexed set */
-  position: number;
+  /** size of the indexed set */
   size: number;
 }
 
@@ -24,78 +21,54 @@ export interface SetMatch {
 }
 
 /**
- * The prefix entries a probe of set `ranks` at threshold t looks up: its first prefixLength(t, |x|)
- * ranks, each with the range of partner sizes the length filter allows.
+ * The prefix entries a probe of set `ranks` at threshold t looks up, each with the range of partner
+ * sizes the length filter allows. Only positions i with |x| − i ≥ α(|x|, lo) are kept: a rank
+ * further on can never be the first shared one of a pair that reaches t (see probeHitFilter), and
+ * the smallest partner size lo needs the smallest overlap. That is never past prefixLength(t, |x|).
+ *
+ * @example probeKeys(Int32Array.of(1, 2, 3, 4, 5), { p: 4, q: 5 }) // { ranks: [1, 2], lo: 4, hi: 6 }
  */
 export function probeKeys(ranks: Int32Array, t: Threshold) {
-  const length = prefixLength(t, ranks.length);
   const [lo, hi] = sizeBounds(t, ranks.length);
-  return { ranks: ranks.subarray(0, length), lo, hi };
+  const length = Math.min(prefixLength(t, ranks.length), ranks.length - minOverlap(t, ranks.length, lo) + 1);
+  return { ranks: ranks.subarray(0, Math.max(0, length)), lo, hi };
 }
 
 /**
- * Applies the position filter to the hits of a probe batch and returns the candidate set ids that
- * survive, per probe. Hits must come grouped by probe and ascending by probePosition.
+ * The position filter as an SQL condition on one hit, for a probe p(pos, sz) and a prefix entry
+ * e(position, size), with α = minOverlap(t, p.sz, e.size) in integers.
  *
- * Invariant: for a hit at positions i (probe) and j (indexed) with c shared ranks seen before it,
- * c is exactly |x[0..i) ∩ y[0..j)| (both prefixes are in the same global order), so
- * c + 1 + min(|x|−i−1, |y|−j−1) bounds the overlap; a candidate whose bound falls below the
- * required overlap can never reach the threshold and is dropped for good.
+ * Why one hit is enough: the first shared rank of x and y sits at positions i and j with nothing
+ * shared before it (both arrays are in the same global order), so the overlap is at most
+ * 1 + min(|x|−i−1, |y|−j−1). A pair that reaches t therefore has its first shared rank at
+ * |x| − i ≥ α and |y| − j ≥ α, inside both probing prefixes (α ≥ ⌈t·|x|⌉ whenever |y| ≥ t·|x|),
+ * so the pair keeps at least that hit. Later hits of a pair only get smaller bounds, so hits
+ * failing the condition carry nothing a pair needs. The database drops them before they travel.
  */
-export function positionFilter(
-  hits: ProbeHit[],
-  probeSizes: ArrayLike<number>,
-  t: Threshold,
-  skip: (probe: number, setId: number) => boolean,
-): Map<number, number[]> {
-  const survivors = new Map<number, number[]>();
-  let current = -1;
-  // per probe: setId → shared count so far, or −1 once pruned
-  let seen = new Map<number, number>();
-  const flush = () => {
-    if (current < 0) return;
-    const ids: number[] = [];
-    for (const [setId, count] of seen) if (count > 0) ids.push(setId);
-    if (ids.length) survivors.set(current, ids);
-  };
-  for (const hit of hits) {
-    if (hit.probe !== current) {
-      flush();
-      current = hit.probe;
-      seen = new Map();
-    }
-    if (skip(hit.probe, hit.setId)) continue;
-    const c = seen.get(hit.setId) ?? 0;
-    if (c < 0) continue;
-    const xSize = probeSizes[hit.probe];
-    const required = minOverlap(t, xSize, hit.size);
-    const bound = c + 1 + Math.min(xSize - hit.probePosition - 1, hit.size - hit.position - 1);
-    seen.set(hit.setId, bound >= required ? c + 1 : -1);
-  }
-  flush();
-  return survivors;
+export function probeHitFilter(t: Threshold, probe = 'p', entry = 'e'): string {
+  const { p, q } = t;
+  const alpha = `((${p} * (${probe}.sz + ${entry}.size) + ${p + q - 1}) / ${p + q})`;
+  return `${probe}.sz - ${probe}.pos >= ${alpha} and ${entry}.size - ${entry}.position >= ${alpha}`;
 }
 
 /**
- * Verifies the surviving candidates by merging the sorted rank arrays, with early exit.
- * Returns only the pairs that reach the threshold, with their exact overlap.
+ * Verifies candidates by merging the sorted rank arrays, with early exit. Returns only the pairs
+ * that reach the threshold, with their exact overlap.
  */
 export function verifyCandidates(
-  survivors: Map<number, number[]>,
+  candidates: ProbeCandidate[],
   probes: Int32Array[],
   stored: Map<number, Int32Array>,
   t: Threshold,
 ): SetMatch[] {
   const matches: SetMatch[] = [];
-  for (const [probe, setIds] of survivors) {
+  for (const { probe, setId } of candidates) {
     const x = probes[probe];
-    for (const setId of setIds) {
-      const y = stored.get(setId);
-      if (!y) throw new Error(`candidate set ${setId} was not loaded for verification`);
-      const overlap = overlapAtLeast(x, y, minOverlap(t, x.length, y.length));
-      if (overlap > 0 && reaches(t, x.length, y.length, overlap)) {
-        matches.push({ probe, setId, size: y.length, overlap, similarity: overlap / (x.length + y.length - overlap) });
-      }
+    const y = stored.get(setId);
+    if (!y) throw new Error(`candidate set ${setId} was not loaded for verification`);
+    const overlap = overlapAtLeast(x, y, minOverlap(t, x.length, y.length));
+    if (overlap > 0 && reaches(t, x.length, y.length, overlap)) {
+      matches.push({ probe, setId, size: y.length, overlap, similarity: overlap / (x.length + y.length - overlap) });
     }
   }
   return matches;

@@ -1,0 +1,458 @@
+import os from 'node:os';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { parseArgs } from 'node:util';
+import { QueryTypes } from 'sequelize';
+import { findSimilarSets } from '../clone-index/find-copies';
+import { addSets, setHash } from '../clone-index/sets';
+import { connect, db, disconnect } from '../db/connection';
+import { migrateUp } from '../db/migrate';
+import { createDatabaseIfMissing, dropDatabase, ensureDatabaseServer } from '../db/postgres';
+import { loadConfig } from '../config';
+import { parseThreshold } from '../matching/threshold';
+
+/**
+ * `npm run bench:index [-- --sizes 200000,1000000 --keep --seed 7 --queries 300]`: the prefix index
+ * in PostgreSQL on synthetic shingle sets, printed as Markdown. Not a test: it measures, it does not judge.
+ *
+ * It works in a database of its own (`doublet_bench` on the local cluster, created fresh and dropped
+ * at the end unless `--keep`), never in the development database. Stages are cumulative: the index
+ * is loaded up to each size in turn, and at each size it measures
+ * - the load of that stage (sets per second, store vs probe time, as addSets reports them);
+ * - the probe of one batch of 10k new sets (a release's worth), in a transaction rolled back
+ *   afterwards so the index keeps its size;
+ * - single find-copies probes (findSimilarSets at 0.8) of near-copies of indexed sets and of fresh sets;
+ * - the size of the index tables and their indexes.
+ *
+ * The synthetic sets imitate shingle sets of real functions:
+ * - shingles `s<id>` drawn from a Zipf-like law (exponent 1 over 2^20 ids): a few shingles, think
+ *   `) { return`, sit in most sets, most are rare; a repeated draw becomes `s<id>#2` as in real sets;
+ * - sizes log-normal (median 48, σ 0.55, clamped to 8..800): most functions have 30–80 shingles, a
+ *   long tail reaches a few hundred;
+ * - 10% planted near-copies of an earlier set (0–20% of shingles dropped or replaced) and 2% exact
+ *   copies (which addSets stores once).
+ * Set i depends only on (seed, i), so a stage generates its sets on the fly and never holds the
+ * whole collection in memory.
+ */
+
+const BENCH_DATABASE = 'doublet_bench';
+const DEFAULT_SIZES = [200_000, 1_000_000];
+/** Sets per addSets call (one transaction each), as a large snapshot would bring. */
+const LOAD_CHUNK = 25_000;
+/** New sets in the probe-rate measurement, and the probe batch size used everywhere. */
+const PROBE_BATCH = 10_000;
+const FIND_THRESHOLD = parseThreshold('0.8');
+
+const VOCABULARY = 1 << 20;
+const ZIPF_TABLE = 1 << 21;
+const RELABEL = 0x9e3779b1;
+
+/** mulberry32: small, fast and seedable. */
+function random(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let x = a;
+    x = Math.imul(x ^ (x >>> 15), x | 1);
+    x ^= x + Math.imul(x ^ (x >>> 7), x | 61);
+    return ((x ^ (x >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** A per-item seed: the same (seed, salt, i) always gives the same stream. */
+function mix(seed: number, salt: number, i: number): number {
+  let h = Math.imul(seed ^ 0x85ebca6b, 0xc2b2ae35) ^ Math.imul(salt + 1, 0x27d4eb2f) ^ Math.imul(i + 1, 0x165667b1);
+  h = Math.imul(h ^ (h >>> 16), 0x85ebca6b);
+  h = Math.imul(h ^ (h >>> 13), 0xc2b2ae35);
+  return (h ^ (h >>> 16)) >>> 0;
+}
+
+/** Token r fills a share of the table proportional to 1/(r+1): a uniform index into it is a Zipf draw. */
+function zipfTable(): Int32Array {
+  let harmonic = 0;
+  for (let r = 0; r < VOCABULARY; r++) harmonic += 1 / (r + 1);
+  const table = new Int32Array(ZIPF_TABLE);
+  let filled = 0;
+  let cumulative = 0;
+  for (let r = 0; r < VOCABULARY && filled < ZIPF_TABLE; r++) {
+    cumulative += 1 / (r + 1) / harmonic;
+    const until = Math.min(ZIPF_TABLE, Math.round(cumulative * ZIPF_TABLE));
+    for (; filled < until; filled++) table[filled] = r;
+  }
+  for (; filled < ZIPF_TABLE; filled++) table[filled] = VOCABULARY - 1 - (filled % 1024);
+  return table;
+}
+
+type Kind = 'original' | 'near' | 'exact';
+
+/** The synthetic collection: set i as a shingle list, from (seed, i) alone. */
+export class Collection {
+  private readonly table = zipfTable();
+
+  constructor(private readonly seed: number) {}
+
+  private draw(next: () => number): number {
+    return Math.imul(this.table[(next() * ZIPF_TABLE) | 0], RELABEL) & (VOCABULARY - 1);
+  }
+
+  kind(i: number): Kind {
+    if (i < 100) return 'original';
+    const x = random(mix(this.seed, 1, i))();
+    return x < 0.1 ? 'near' : x < 0.12 ? 'exact' : 'original';
+  }
+
+  /** Token ids of an original set (with repeats, as drawn). */
+  private originalTokens(salt: number, i: number): number[] {
+    const next = random(mix(this.seed, salt, i));
+    const gauss = Math.sqrt(-2 * Math.log(1 - next())) * Math.cos(2 * Math.PI * next());
+    const size = Math.max(8, Math.min(800, Math.round(48 * Math.exp(0.55 * gauss))));
+    const tokens: number[] = [];
+    for (let k = 0; k < size; k++) tokens.push(this.draw(next));
+    return tokens;
+  }
+
+  /** The source of a copy: an earlier original (copies never copy copies, to keep this cheap). */
+  private source(i: number): number {
+    const next = random(mix(this.seed, 3, i));
+    let j = Math.floor(next() * i);
+    while (this.kind(j) !== 'original') j = Math.floor(next() * i);
+    return j;
+  }
+
+  /** Drops or replaces up to `share` of the tokens: an edited copy. */
+  private edit(tokens: number[], next: () => number, share: number): number[] {
+    const copy = [...tokens];
+    const edits = Math.floor(next() * share * copy.length);
+    for (let e = 0; e < edits; e++) {
+      const at = Math.floor(next() * copy.length);
+      if (next() < 0.5 && copy.length > 8) copy.splice(at, 1);
+      else copy[at] = this.draw(next);
+    }
+    return copy;
+  }
+
+  private tokens(i: number): number[] {
+    switch (this.kind(i)) {
+      case 'original':
+        return this.originalTokens(2, i);
+      case 'exact':
+        return this.originalTokens(2, this.source(i));
+      case 'near':
+        return this.edit(this.originalTokens(2, this.source(i)), random(mix(this.seed, 4, i)), 0.2);
+    }
+  }
+
+  /** Set i of the collection. */
+  set(i: number): string[] {
+    return shingleSet(this.tokens(i));
+  }
+
+  /** A near-copy (0–15% edited) of indexed set i, as someone would paste into find copies. */
+  nearQuery(i: number, q: number): string[] {
+    return shingleSet(this.edit(this.tokens(i), random(mix(this.seed, 5, q)), 0.15));
+  }
+
+  /** A set drawn like an original but indexed nowhere. */
+  freshQuery(q: number): string[] {
+    return shingleSet(this.originalTokens(6, q));
+  }
+
+  /** A fresh set for the probe-rate batch: the same mix as the collection, sources among indexed sets. */
+  releaseSet(q: number, indexed: number): string[] {
+    const next = random(mix(this.seed, 7, q));
+    const x = next();
+    if (x < 0.1) return shingleSet(this.edit(this.tokens(Math.floor(next() * indexed)), next, 0.2));
+    return shingleSet(this.originalTokens(8, q));
+  }
+}
+
+/** Token ids → shingle strings; the n-th repeat of a shingle becomes `s<id>#n`, so the set keeps multiset counts. */
+function shingleSet(tokens: number[]): string[] {
+  const seen = new Map<number, number>();
+  return tokens.map((t) => {
+    const n = (seen.get(t) ?? 0) + 1;
+    seen.set(t, n);
+    return n === 1 ? `s${t}` : `s${t}#${n}`;
+  });
+}
+
+const withHash = (shingles: string[]) => ({ hash: setHash(shingles), shingles });
+
+interface LoadFigures {
+  sets: number;
+  newSets: number;
+  pairs: number;
+  candidates: number;
+  wallMs: number;
+  storeMs: number;
+  probeMs: number;
+  generateMs: number;
+}
+
+/** Loads sets [from, to) in chunks of LOAD_CHUNK, one transaction each. */
+async function loadRange(collection: Collection, from: number, to: number): Promise<LoadFigures> {
+  const figures: LoadFigures = { sets: to - from, newSets: 0, pairs: 0, candidates: 0, wallMs: 0, storeMs: 0, probeMs: 0, generateMs: 0 };
+  for (let start = from; start < to; start += LOAD_CHUNK) {
+    const end = Math.min(to, start + LOAD_CHUNK);
+    let t0 = performance.now();
+    const sets: { hash: string; shingles: string[] }[] = [];
+    for (let i = start; i < end; i++) sets.push(withHash(collection.set(i)));
+    figures.generateMs += performance.now() - t0;
+    t0 = performance.now();
+    const result = await db().transaction((tx) => addSets(tx, sets, { batchSize: PROBE_BATCH }));
+    figures.wallMs += performance.now() - t0;
+    figures.storeMs += result.timings.store;
+    figures.probeMs += result.timings.probe;
+    figures.newSets += result.newSetCount;
+    figures.pairs += result.newPairCount;
+    figures.candidates += result.candidates;
+    process.stderr.write(
+      `\r  loaded ${formatCount(end)} sets (${formatCount(Math.round((end - from) / (figures.wallMs / 1000)))} sets/s)   `,
+    );
+  }
+  process.stderr.write('\n');
+  return figures;
+}
+
+interface ProbeFigures {
+  newSets: number;
+  storeMs: number;
+  probeMs: number;
+  pairs: number;
+  candidates: number;
+}
+
+/** Adds one batch of PROBE_BATCH new sets in a transaction that is rolled back: the index keeps its size. */
+async function probeBatch(collection: Collection, indexed: number, salt: number): Promise<ProbeFigures> {
+  const sets = Array.from({ length: PROBE_BATCH }, (_, q) => withHash(collection.releaseSet(salt * PROBE_BATCH + q, indexed)));
+  const tx = await db().transaction();
+  try {
+    const result = await addSets(tx, sets, { batchSize: PROBE_BATCH });
+    return {
+      newSets: result.newSetCount,
+      storeMs: result.timings.store,
+      probeMs: result.timings.probe,
+      pairs: result.newPairCount,
+      candidates: result.candidates,
+    };
+  } finally {
+    await tx.rollback();
+  }
+}
+
+interface Latencies {
+  p50: number;
+  p95: number;
+  max: number;
+  found: number;
+}
+
+function percentile(sorted: number[], p: number): number {
+  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)];
+}
+
+async function timeQueries(queries: string[][]): Promise<Latencies> {
+  const times: number[] = [];
+  let found = 0;
+  for (const shingles of queries) {
+    const t0 = performance.now();
+    const similar = await findSimilarSets(undefined, shingles, FIND_THRESHOLD);
+    times.push(performance.now() - t0);
+    found += similar.length;
+  }
+  times.sort((a, b) => a - b);
+  return { p50: percentile(times, 50), p95: percentile(times, 95), max: times[times.length - 1], found };
+}
+
+/** Single find-copies probes: near-copies of indexed sets and fresh sets, interleaved in one timed run each. */
+async function findCopiesLatency(collection: Collection, indexed: number, count: number, seed: number) {
+  const next = random(mix(seed, 9, indexed));
+  const near = Array.from({ length: count }, (_, q) => collection.nearQuery(Math.floor(next() * indexed), indexed + q));
+  const fresh = Array.from({ length: count }, (_, q) => collection.freshQuery(indexed + q));
+  // warm-up: the first queries pay for connections and plan caches, not for the index
+  await timeQueries([...near.slice(0, 5), ...fresh.slice(0, 5)]);
+  const nearTimes = await timeQueries(near);
+  const freshTimes = await timeQueries(fresh);
+  return { near: nearTimes, fresh: freshTimes };
+}
+
+interface RelationSize {
+  table: string;
+  rows: number;
+  total: number;
+  heap: number;
+  indexes: number;
+}
+
+const INDEX_TABLES = ['shingles', 'shingle_sets', 'prefix_entries', 'set_pairs'];
+
+async function relationSizes(): Promise<RelationSize[]> {
+  return db().query<RelationSize>(
+    `select t as "table", (select reltuples::bigint from pg_class where oid = t::regclass) as rows,
+            pg_total_relation_size(t) as total, pg_relation_size(t) as heap, pg_indexes_size(t) as indexes
+       from unnest($1::text[]) as t`,
+    { bind: [INDEX_TABLES], type: QueryTypes.SELECT },
+  );
+}
+
+async function settings(): Promise<string> {
+  const rows = await db().query<{ name: string; setting: string; unit: string | null }>(
+    `select name, setting, unit from pg_settings where name in ('shared_buffers', 'work_mem', 'effective_cache_size', 'synchronous_commit', 'max_wal_size') order by name`,
+    { type: QueryTypes.SELECT },
+  );
+  return rows.map((r) => `${r.name} ${r.setting}${r.unit ?? ''}`).join(', ');
+}
+
+interface Stage {
+  indexed: number;
+  load: LoadFigures;
+  probe: ProbeFigures;
+  find: { near: Latencies; fresh: Latencies };
+  sizes: RelationSize[];
+  storedSets: number;
+  storedPairs: number;
+}
+
+function formatCount(n: number): string {
+  return Math.round(n).toLocaleString('en-US');
+}
+
+function formatMs(ms: number): string {
+  return ms >= 10_000 ? `${(ms / 1000).toFixed(0)} s` : ms >= 1000 ? `${(ms / 1000).toFixed(1)} s` : ms >= 10 ? `${ms.toFixed(0)} ms` : `${ms.toFixed(1)} ms`;
+}
+
+function formatBytes(n: number): string {
+  return n >= 1 << 30 ? `${(n / (1 << 30)).toFixed(2)} GB` : `${(n / (1 << 20)).toFixed(0)} MB`;
+}
+
+const rate = (count: number, ms: number) => formatCount(count / (ms / 1000));
+
+function report(stages: Stage[], meta: { seed: number; queries: number; peakRssMb: number; pgSettings: string; unfinished?: string }) {
+  const out: string[] = [];
+  const cpu = os.cpus()[0]?.model.trim() ?? 'unknown CPU';
+  out.push(
+    `Prefix index in PostgreSQL, synthetic shingle sets (seed ${meta.seed}): ${os.cpus().length} cores (${cpu}), ` +
+      `${(os.totalmem() / 2 ** 30).toFixed(0)} GB RAM, ${process.version}, local cluster: ${meta.pgSettings}.`,
+  );
+  out.push('');
+  out.push(
+    '| indexed sets | stage load | load rate | store / probe | probe 10k new sets | find copies p50 / p95 (near-copy) | find copies p50 / p95 (fresh) | set pairs | prefix entries |',
+  );
+  out.push('| ---: | ---: | ---: | --- | ---: | --- | --- | ---: | ---: |');
+  for (const s of stages) {
+    const entries = s.sizes.find((r) => r.table === 'prefix_entries')?.rows ?? 0;
+    out.push(
+      `| ${formatCount(s.indexed)} | ${formatCount(s.load.sets)} sets in ${formatMs(s.load.wallMs)} | ${rate(s.load.sets, s.load.wallMs)} sets/s | ` +
+        `${formatMs(s.load.storeMs)} / ${formatMs(s.load.probeMs)} | ${rate(s.probe.newSets, s.probe.probeMs)} sets/s | ` +
+        `${formatMs(s.find.near.p50)} / ${formatMs(s.find.near.p95)} | ${formatMs(s.find.fresh.p50)} / ${formatMs(s.find.fresh.p95)} | ` +
+        `${formatCount(s.storedPairs)} | ${formatCount(entries)} |`,
+    );
+  }
+  out.push('');
+  out.push('| indexed sets | table | rows | total | table alone | indexes |');
+  out.push('| ---: | --- | ---: | ---: | ---: | ---: |');
+  for (const s of stages) {
+    for (const r of s.sizes) {
+      out.push(`| ${formatCount(s.indexed)} | ${r.table} | ${formatCount(Number(r.rows))} | ${formatBytes(Number(r.total))} | ${formatBytes(Number(r.heap))} | ${formatBytes(Number(r.indexes))} |`);
+    }
+  }
+  out.push('');
+  out.push(`Peak RSS of the Node process: ${meta.peakRssMb.toFixed(0)} MB.`);
+  for (const s of stages) {
+    out.push(
+      `At ${formatCount(s.indexed)}: stage stored ${formatCount(s.load.newSets)} new sets (the rest were exact copies), ` +
+        `${formatCount(s.load.candidates)} candidates verified, ${formatCount(s.load.pairs)} pairs found; ` +
+        `the 10k batch: store ${formatMs(s.probe.storeMs)}, probe ${formatMs(s.probe.probeMs)}, ${formatCount(s.probe.candidates)} candidates, ${formatCount(s.probe.pairs)} pairs; ` +
+        `find copies: ${meta.queries} near-copy queries found ${formatCount(s.find.near.found)} sets (max ${formatMs(s.find.near.max)}), ` +
+        `${meta.queries} fresh found ${formatCount(s.find.fresh.found)} (max ${formatMs(s.find.fresh.max)}).`,
+    );
+  }
+  if (meta.unfinished) out.push(meta.unfinished);
+  out.push('');
+  out.push(
+    'Load rate counts every input set (exact copies included) over the addSets transactions; store = dictionary, set rows and ' +
+      'prefix entries, probe = prefix lookups, position filter, verification and set pairs. The 10k batch runs in a transaction ' +
+      'that is rolled back. Find copies is findSimilarSets at t = 0.8, one query at a time, over the pool.',
+  );
+  return out.join('\n');
+}
+
+async function main() {
+  const { values } = parseArgs({
+    args: process.argv.slice(2),
+    options: {
+      sizes: { type: 'string' },
+      keep: { type: 'boolean', default: false },
+      seed: { type: 'string', default: '7' },
+      queries: { type: 'string', default: '300' },
+      'time-limit': { type: 'string', default: '1200' },
+    },
+  });
+  const sizes = values.sizes ? values.sizes.split(',').map((s) => Number(s.trim())) : DEFAULT_SIZES;
+  if (sizes.some((s, i) => !Number.isInteger(s) || s <= 0 || (i > 0 && s <= sizes[i - 1]))) {
+    throw new Error(`--sizes must be increasing positive integers, got "${values.sizes}"`);
+  }
+  const seed = Number(values.seed);
+  const queries = Number(values.queries);
+  const timeLimitMs = Number(values['time-limit']) * 1000;
+  if (loadConfig().externalDatabaseUrl) {
+    throw new Error('DATABASE_URL is set: bench:index runs only on the local cluster, in a database of its own. Unset it.');
+  }
+  const started = performance.now();
+  await ensureDatabaseServer(BENCH_DATABASE);
+  await dropDatabase(BENCH_DATABASE);
+  await createDatabaseIfMissing(BENCH_DATABASE);
+  const url = await ensureDatabaseServer(BENCH_DATABASE);
+  const sequelize = connect(url);
+  const stages: Stage[] = [];
+  let unfinished: string | undefined;
+  try {
+    await migrateUp(sequelize);
+    const pgSettings = await settings();
+    const collection = new Collection(seed);
+    process.stderr.write(`index benchmark: sizes ${sizes.map(formatCount).join(', ')}, seed ${seed}, database ${BENCH_DATABASE}\n`);
+    let indexed = 0;
+    for (const [stageIndex, size] of sizes.entries()) {
+      const load = await loadRange(collection, indexed, size);
+      indexed = size;
+      // what autovacuum would do soon after a large load; the planner needs the new statistics
+      await sequelize.query('vacuum analyze shingles, shingle_sets, prefix_entries, set_pairs');
+      process.stderr.write('  probing a batch of 10k new sets… ');
+      const probe = await probeBatch(collection, indexed, stageIndex);
+      process.stderr.write(`${rate(probe.newSets, probe.probeMs)} sets/s\n  find copies… `);
+      const find = await findCopiesLatency(collection, indexed, queries, seed);
+      process.stderr.write(`p95 ${formatMs(find.near.p95)} (near), ${formatMs(find.fresh.p95)} (fresh)\n`);
+      const [counts] = await sequelize.query<{ sets: number; pairs: number }>(
+        'select (select count(*) from shingle_sets)::int as sets, (select count(*) from set_pairs)::int as pairs',
+        { type: QueryTypes.SELECT },
+      );
+      stages.push({ indexed, load, probe, find, sizes: await relationSizes(), storedSets: counts.sets, storedPairs: counts.pairs });
+      const elapsed = performance.now() - started;
+      const next = sizes[stageIndex + 1];
+      if (next !== undefined) {
+        // the next stage costs at least its share of this one's load rate
+        const estimate = ((next - size) / size) * (elapsed * 1.2);
+        if (elapsed + estimate > timeLimitMs) {
+          unfinished = `Stopped before ${formatCount(next)} sets: at this rate it would take about ${formatMs(estimate)} more, past the ${formatMs(timeLimitMs)} limit (--time-limit).`;
+          break;
+        }
+      }
+    }
+    process.stdout.write(
+      `${report(stages, { seed, queries, peakRssMb: process.resourceUsage().maxRSS / 1024, pgSettings, unfinished })}\n`,
+    );
+    process.stderr.write(`total ${formatMs(performance.now() - started)}\n`);
+  } finally {
+    await disconnect();
+    if (!values.keep) await dropDatabase(BENCH_DATABASE);
+    else process.stderr.write(`kept database ${BENCH_DATABASE} (${url})\n`);
+  }
+}
+
+// Run only as a script, so that profiling scripts can import the collection.
+if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
+  main().catch((error: unknown) => {
+    console.error(error instanceof Error ? error.stack ?? error.message : error);
+    process.exit(1);
+  });
+}
