@@ -62,72 +62,158 @@ export class LineIndex {
   }
 }
 
-function sha1(parts: readonly string[]): string {
-  // Parts are joined with NUL: tokenForm escapes every control character, so the join is unambiguous.
-  return createHash('sha1').update(parts.join('\u0000')).digest('hex');
+/**
+ * A file's token forms joined once with NUL, so the hash input of any token range is one slice of
+ * it rather than a join per fragment (nested fragments would otherwise rejoin the same tokens at
+ * every level). NUL is unambiguous: tokenForm escapes every control character.
+ */
+class JoinedForms {
+  private readonly joined: string;
+  /** offsets[i - lo]: where token i starts in `joined`; offsets[hi - lo] = joined.length + 1. */
+  private readonly offsets: Int32Array;
+
+  constructor(
+    forms: readonly string[],
+    private readonly lo: number,
+    hi: number,
+  ) {
+    this.joined = forms.slice(lo, hi).join('\u0000');
+    const offsets = new Int32Array(hi - lo + 1);
+    let at = 0;
+    for (let i = lo; i < hi; i++) {
+      offsets[i - lo] = at;
+      at += forms[i]!.length + 1;
+    }
+    offsets[hi - lo] = at;
+    this.offsets = offsets;
+  }
+
+  /** SHA-1 (hex) of the forms [from, to) (inside [lo, hi)) joined with NUL: `forms.slice(from, to).join('\0')`. */
+  sha1(from: number, to: number): string {
+    const text = from >= to ? '' : this.joined.slice(this.offsets[from - this.lo]!, this.offsets[to - this.lo]! - 1);
+    return createHash('sha1').update(text).digest('hex');
+  }
 }
 
 /**
- * Per-file shingle machinery: each token's form gets a small integer id, each window of k ids a
- * numeric key (exact while vocabulary^k stays below 2^53), and each key its shingle string, built
- * once per file. Nested fragments share the file's windows instead of rebuilding them.
+ * Per-file shingle machinery for the windows of k tokens inside [lo, hi). Each token form gets a
+ * small integer id, each window a numeric key (exact while vocabulary^k stays below 2^53) and a
+ * dense window id. A fragment's n-th repeat of a window is the string `shingle#n`, and n can be no
+ * larger than the window's count in [lo, hi); so every string any fragment can produce is known
+ * up front: one per window position. They are built and sorted once per file, and a fragment's
+ * set is its windows' ranks, sorted as integers, mapped back to the shared strings. This keeps
+ * the default string order of shingleSet while nested fragments share all the string work.
  */
 class WindowTable {
-  private readonly keys: Float64Array | undefined;
-  private readonly strings = new Map<number, string>();
+  /** Dense window id per window position (index i - lo), or undefined when keys would be inexact. */
+  private readonly windowIds: Int32Array | undefined;
+  /** Start of each dense id's block in the rank table; block entry n - 1 is the n-th repeat. */
+  private readonly blocks: Int32Array = new Int32Array(0);
+  /** Rank (position in `sorted`) of each (dense id, repeat). */
+  private readonly ranks: Int32Array = new Int32Array(0);
+  /** Every shingle string of [lo, hi), in the default string order. */
+  private readonly sorted: string[] = [];
+  /** Per dense id: repeats seen so far in the fragment being built; all zero between calls. */
+  private readonly seen: Int32Array = new Int32Array(0);
 
   constructor(
     private readonly forms: readonly string[],
     private readonly k: number,
+    private readonly lo: number,
+    hi: number,
   ) {
+    const windows = hi - lo - k + 1;
+    if (windows <= 0) {
+      this.windowIds = undefined;
+      return;
+    }
     const vocabulary = new Map<string, number>();
-    const ids = new Int32Array(forms.length);
-    for (let i = 0; i < forms.length; i++) {
+    const ids = new Int32Array(hi - lo);
+    for (let i = lo; i < hi; i++) {
       let id = vocabulary.get(forms[i]!);
       if (id === undefined) {
         id = vocabulary.size;
         vocabulary.set(forms[i]!, id);
       }
-      ids[i] = id;
+      ids[i - lo] = id;
     }
     const base = vocabulary.size + 1;
-    if (Math.pow(base, k) < Number.MAX_SAFE_INTEGER && forms.length >= k) {
-      const keys = new Float64Array(forms.length - k + 1);
-      for (let i = 0; i < keys.length; i++) {
-        let key = 0;
-        for (let j = 0; j < k; j++) key = key * base + ids[i + j]! + 1;
-        keys[i] = key;
-      }
-      this.keys = keys;
+    if (!(Math.pow(base, k) < Number.MAX_SAFE_INTEGER)) {
+      this.windowIds = undefined;
+      return;
     }
+    const dense = new Map<number, number>();
+    const windowIds = new Int32Array(windows);
+    const firstAt: number[] = [];
+    const counts: number[] = [];
+    for (let w = 0; w < windows; w++) {
+      let key = 0;
+      for (let j = 0; j < k; j++) key = key * base + ids[w + j]! + 1;
+      let d = dense.get(key);
+      if (d === undefined) {
+        d = firstAt.length;
+        dense.set(key, d);
+        firstAt.push(w);
+        counts.push(0);
+      }
+      counts[d]!++;
+      windowIds[w] = d;
+    }
+    const blocks = new Int32Array(firstAt.length);
+    const strings: string[] = new Array(windows);
+    let at = 0;
+    for (let d = 0; d < firstAt.length; d++) {
+      blocks[d] = at;
+      const w = lo + firstAt[d]!;
+      let text = forms[w]!;
+      for (let j = 1; j < k; j++) text += SHINGLE_SEPARATOR + forms[w + j]!;
+      strings[at++] = text;
+      for (let n = 2; n <= counts[d]!; n++) strings[at++] = `${text}#${n}`;
+    }
+    // All strings are distinct (tokenForm keeps `#n` and the separator out of tokens), so the
+    // comparator never sees a tie and the order is exactly the default sort's.
+    const order = Array.from({ length: windows }, (_, i) => i);
+    order.sort((a, b) => (strings[a]! < strings[b]! ? -1 : 1));
+    const ranks = new Int32Array(windows);
+    const sorted: string[] = new Array(windows);
+    for (let r = 0; r < windows; r++) {
+      ranks[order[r]!] = r;
+      sorted[r] = strings[order[r]!]!;
+    }
+    this.windowIds = windowIds;
+    this.blocks = blocks;
+    this.ranks = ranks;
+    this.sorted = sorted;
+    this.seen = new Int32Array(firstAt.length);
   }
 
-  /** The shingle set of the tokens [from, to), as shingleSet would compute it. */
+  /** The shingle set of the tokens [from, to) (inside [lo, hi)), exactly as shingleSet computes it. */
   shingles(from: number, to: number): string[] {
     const k = this.k;
-    if (!this.keys || to - from < k) return shingleSet(this.forms.slice(from, to), k);
-    const counts = new Map<number, number>();
-    const out: string[] = new Array(to - from - k + 1);
-    for (let i = from; i + k <= to; i++) {
-      const key = this.keys[i]!;
-      let text = this.strings.get(key);
-      if (text === undefined) {
-        text = this.forms[i]!;
-        for (let j = 1; j < k; j++) text += SHINGLE_SEPARATOR + this.forms[i + j]!;
-        this.strings.set(key, text);
-      }
-      const seen = (counts.get(key) ?? 0) + 1;
-      counts.set(key, seen);
-      out[i - from] = seen === 1 ? text : `${text}#${seen}`;
+    const windowIds = this.windowIds;
+    if (!windowIds || to - from < k) return shingleSet(this.forms.slice(from, to), k);
+    const { blocks, ranks, sorted, seen } = this;
+    const first = from - this.lo;
+    const count = to - from - k + 1;
+    const picked = new Int32Array(count);
+    for (let w = 0; w < count; w++) {
+      const d = windowIds[first + w]!;
+      picked[w] = ranks[blocks[d]! + seen[d]!]!;
+      seen[d]!++;
     }
-    return out.sort();
+    for (let w = 0; w < count; w++) seen[windowIds[first + w]!] = 0;
+    picked.sort();
+    const out: string[] = new Array(count);
+    for (let i = 0; i < count; i++) out[i] = sorted[picked[i]!]!;
+    return out;
   }
 }
 
 /**
  * Attaches tokens, identities and shingle sets to spans. A span takes every token that lies
- * inside it, nested functions included (see languages/babel.ts on nesting); spans with fewer
- * than `minTokens` tokens are dropped. Fragments come out in source order (outer first when two
+ * inside it, nested functions included (see languages/babel.ts on nesting), and records them as
+ * the index range [tokenStart, tokenEnd) of `tokens`; spans with fewer than `minTokens` tokens
+ * are dropped (the others keep their indexes into the whole stream). Fragments come out in source order (outer first when two
  * start together).
  */
 export function buildFragments(
@@ -136,23 +222,34 @@ export function buildFragments(
   spans: readonly FragmentSpan[],
   options: ResolvedOptions,
 ): Fragment[] {
-  const lines = new LineIndex(text);
   const sorted = [...spans].sort((a, b) => a.start - b.start || b.end - a.end);
-  const n = tokens.texts.length;
-  const raw: string[] = new Array(n);
-  const normal: string[] = new Array(n);
-  for (let i = 0; i < n; i++) {
-    raw[i] = tokenForm(tokens.texts[i]!, tokens.classes[i]!, false);
-    normal[i] = tokenForm(tokens.texts[i]!, tokens.classes[i]!, true);
-  }
-  let windows: WindowTable | undefined;
-  const fragments: Fragment[] = [];
+  // Token ranges first: forms, hashes and windows only need to cover the fragments that are kept.
+  const kept: Array<{ span: FragmentSpan; from: number; to: number }> = [];
+  let lo = tokens.texts.length;
+  let hi = 0;
   for (const span of sorted) {
     const from = lowerBound(tokens.starts, span.start);
     const to = lowerBound(tokens.starts, span.end);
     const count = to - from;
     if (count === 0 || count < options.minTokens) continue;
-    windows ??= new WindowTable(options.normalize ? normal : raw, options.shingleSize);
+    kept.push({ span, from, to });
+    if (from < lo) lo = from;
+    if (to > hi) hi = to;
+  }
+  if (kept.length === 0) return [];
+  const lines = new LineIndex(text);
+  // Indexed by token position; only [lo, hi) is filled.
+  const raw: string[] = new Array(hi);
+  const normal: string[] = new Array(hi);
+  for (let i = lo; i < hi; i++) {
+    raw[i] = tokenForm(tokens.texts[i]!, tokens.classes[i]!, false);
+    normal[i] = tokenForm(tokens.texts[i]!, tokens.classes[i]!, true);
+  }
+  const windows = new WindowTable(options.normalize ? normal : raw, options.shingleSize, lo, hi);
+  const rawJoined = new JoinedForms(raw, lo, hi);
+  const normalJoined = new JoinedForms(normal, lo, hi);
+  const fragments: Fragment[] = [];
+  for (const { span, from, to } of kept) {
     // The span may end after its last token (a dropped comment can); the reported range still
     // covers the whole construct as the parser saw it.
     const start = lines.position(span.start);
@@ -164,9 +261,11 @@ export function buildFragments(
       startColumn: start.column,
       endLine: end.line,
       endColumn: end.column,
-      tokens: count,
-      rawHash: sha1(raw.slice(from, to)),
-      normalizedHash: sha1(normal.slice(from, to)),
+      tokens: to - from,
+      tokenStart: from,
+      tokenEnd: to,
+      rawHash: rawJoined.sha1(from, to),
+      normalizedHash: normalJoined.sha1(from, to),
       shingles: windows.shingles(from, to),
     });
   }

@@ -2,6 +2,7 @@ import { parse, type ParserPlugin } from '@babel/parser';
 import type { FragmentSpan, ResolvedOptions } from '../fragments';
 import { emptyTokenStream, pushToken, type TokenClass } from '../tokens';
 import type { FragmentKind } from '../types';
+import { BABEL_CHILD_KEYS } from './babel-child-keys';
 import type { LanguageAnalysis } from './language';
 
 /**
@@ -62,6 +63,16 @@ const LABEL_CLASS: Record<string, TokenClass> = {
   true: 'boolean',
   false: 'boolean',
 };
+
+/** Child keys by node type (see babel-child-keys.ts), as a Map so no prototype key can match. */
+const CHILD_KEYS = new Map<string, readonly string[]>(Object.entries(BABEL_CHILD_KEYS));
+
+/** Every key of a node type the table does not know that may hold children: all but SKIP_KEYS. */
+function allChildKeys(node: BabelNode): string[] {
+  const keys: string[] = [];
+  for (const key in node) if (!SKIP_KEYS.has(key)) keys.push(key);
+  return keys;
+}
 
 function isNode(value: unknown): value is BabelNode {
   return typeof value === 'object' && value !== null && typeof (value as BabelNode).type === 'string';
@@ -125,13 +136,6 @@ function qualify(owner: string | undefined, name: string): string {
   return owner ? `${owner}.${name}` : name;
 }
 
-interface Frame {
-  node: BabelNode;
-  parent: BabelNode | undefined;
-  className: string | undefined;
-  objectName: string | undefined;
-}
-
 function parseWithFallback(text: string, plugins: ParserPlugin[], sourceType: 'module' | 'script') {
   const common = {
     plugins,
@@ -167,10 +171,18 @@ export function analyzeWithBabel(
   const spans: FragmentSpan[] = [];
   const dropped: Array<[number, number]> = [];
   const dropTypes = dialect.typescript && !options.includeTypeAnnotations;
-  const stack: Frame[] = [{ node: ast, parent: undefined, className: undefined, objectName: undefined }];
+  // An explicit stack, not recursion: nesting depth is the input's to choose. Four parallel
+  // stacks instead of one object per node, since a large file has a few hundred thousand nodes.
+  const nodes: BabelNode[] = [ast];
+  const parents: Array<BabelNode | undefined> = [undefined];
+  const classes: Array<string | undefined> = [undefined];
+  const objects: Array<string | undefined> = [undefined];
 
-  while (stack.length > 0) {
-    const { node, parent, className, objectName } = stack.pop()!;
+  while (nodes.length > 0) {
+    const node = nodes.pop()!;
+    const parent = parents.pop();
+    const className = classes.pop();
+    const objectName = objects.pop();
     let childClass = className;
     let childObject = objectName;
 
@@ -208,19 +220,26 @@ export function analyzeWithBabel(
 
     // Children are pushed in reverse so they pop in source order (not needed for correctness:
     // spans are sorted later, but it keeps the traversal predictable when debugging).
-    const children: Frame[] = [];
-    for (const key in node) {
-      if (SKIP_KEYS.has(key)) continue;
-      const value = node[key];
+    const keys = CHILD_KEYS.get(node.type) ?? allChildKeys(node);
+    for (let k = keys.length - 1; k >= 0; k--) {
+      const value = node[keys[k]!];
       if (Array.isArray(value)) {
-        for (const item of value) {
-          if (isNode(item)) children.push({ node: item, parent: node, className: childClass, objectName: childObject });
+        for (let i = value.length - 1; i >= 0; i--) {
+          const item: unknown = value[i];
+          if (isNode(item)) {
+            nodes.push(item);
+            parents.push(node);
+            classes.push(childClass);
+            objects.push(childObject);
+          }
         }
       } else if (isNode(value)) {
-        children.push({ node: value, parent: node, className: childClass, objectName: childObject });
+        nodes.push(value);
+        parents.push(node);
+        classes.push(childClass);
+        objects.push(childObject);
       }
     }
-    for (let i = children.length - 1; i >= 0; i--) stack.push(children[i]!);
   }
 
   const tokens = emptyTokenStream();
