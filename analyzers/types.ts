@@ -25,6 +25,20 @@ export interface Fragment {
   endColumn: number;
   /** Number of raw tokens (comments and whitespace dropped). */
   tokens: number;
+  /**
+   * Where the fragment's tokens lie in its file's token stream: the 0-based, end-exclusive index
+   * range [tokenStart, tokenEnd) of the stream the fragment's tokens were taken from, so
+   * `tokenEnd - tokenStart === tokens`. That stream is the whole file's tokens in source order,
+   * comments and whitespace dropped, and (for TypeScript, unless `includeTypeAnnotations`) type
+   * annotations dropped too: indexes then count only the tokens that remain. The nested functions
+   * a fragment contains lie inside its range; fragments that do not nest do not overlap. Ranges
+   * are comparable only between fragments of one file analysed with the same options (a snippet's
+   * fragments index the dedented snippet). Use them to count each source token once, e.g. the
+   * clone ratio as the union of ranges per file.
+   */
+  tokenStart: number;
+  /** End of the token range, exclusive (see tokenStart). */
+  tokenEnd: number;
   /** Hash of the raw token stream: equal for type-1 clones. */
   rawHash: string;
   /** Hash of the normalised token stream: equal for type-2 clones. */
