@@ -4,8 +4,14 @@ import { RequireAction, SignedInFrame } from './guards';
 import { AcceptInvitationRoute } from './routes/accept-invitation';
 import { AccountRoute } from './routes/account';
 import { AdminRoute } from './routes/admin';
+import { CloneClassRoute } from './routes/clone-class';
+import { CloneClassesRoute } from './routes/clone-classes';
+import { FindCopiesRoute } from './routes/find-copies';
 import { OverviewRoute } from './routes/overview';
 import { PlaceholderRoute } from './routes/placeholder';
+import { RepositoriesRoute } from './routes/repositories';
+import { RepositoryRoute } from './routes/repository';
+import { SnapshotRoute } from './routes/snapshot';
 
 function NotFoundRoute() {
   return (
@@ -28,22 +34,16 @@ export function AppRoutes() {
         <Route index element={<OverviewRoute />} />
         <Route path="account" element={<AccountRoute />} />
         <Route element={<RequireAction action="repositories.read" />}>
-          <Route
-            path="repositories"
-            element={<PlaceholderRoute title="Repositories" description="Tracked codebases, their snapshots and clone budgets." />}
-          />
+          <Route path="repositories" element={<RepositoriesRoute />} />
+          <Route path="repositories/:id" element={<RepositoryRoute />} />
         </Route>
         <Route element={<RequireAction action="cloneClasses.read" />}>
-          <Route
-            path="clone-classes"
-            element={<PlaceholderRoute title="Clone classes" description="Groups of near-identical functions, to review side by side." />}
-          />
+          <Route path="clone-classes" element={<CloneClassesRoute />} />
+          <Route path="clone-classes/:id" element={<CloneClassRoute />} />
+          <Route path="snapshots/:id" element={<SnapshotRoute />} />
         </Route>
         <Route element={<RequireAction action="findCopies.use" />}>
-          <Route
-            path="find-copies"
-            element={<PlaceholderRoute title="Find copies" description="Paste a function and see every indexed copy of it." />}
-          />
+          <Route path="find-copies" element={<FindCopiesRoute />} />
         </Route>
         <Route element={<RequireAction action="tasks.read" />}>
           <Route path="tasks" element={<PlaceholderRoute title="Tasks" description="Refactor work on clone classes, with owners." />} />

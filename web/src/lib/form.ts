@@ -23,3 +23,30 @@ export function validate<S extends z.ZodType>(
   }
   return { ok: false, errors };
 }
+
+/**
+ * A number field's value for a zod schema: an empty field is `undefined` (so optional fields fall
+ * back to their default), anything else goes through Number() and lets the schema judge it.
+ *
+ * @example
+ * optionalNumber('0.85') // 0.85
+ * optionalNumber('')     // undefined
+ */
+export function optionalNumber(value: FormDataEntryValue | null): number | undefined {
+  if (typeof value !== 'string' || value.trim() === '') return undefined;
+  return Number(value);
+}
+
+/**
+ * A textarea's non-empty lines, trimmed (ignore lists, one pattern a line).
+ *
+ * @example
+ * nonEmptyLines('dist/\n\n  *.min.js ') // ['dist/', '*.min.js']
+ */
+export function nonEmptyLines(value: FormDataEntryValue | null): string[] {
+  if (typeof value !== 'string') return [];
+  return value
+    .split(/\r?\n/)
+    .map((line) => line.trim())
+    .filter((line) => line.length > 0);
+}

@@ -1,0 +1,132 @@
+import { useState } from 'react';
+import type { CloneClassDetailDTO, CloneClassMemberDTO, CloneClassPairDTO } from '../../../../../shared/api/snapshots';
+import { SelectField } from '../../../components/field';
+import { formatLocation, formatSimilarity } from '../../../lib/format';
+import { CodeView } from './code-view';
+
+const TYPE_NAMES: Record<1 | 2 | 3, string> = {
+  1: 'type 1 · identical tokens',
+  2: 'type 2 · identical after renaming',
+  3: 'type 3 · similar',
+};
+
+/** The pair between two members, whichever way round it was stored. */
+function pairOf(pairs: CloneClassPairDTO[], a: number, b: number): CloneClassPairDTO | undefined {
+  return pairs.find((p) => (p.a === a && p.b === b) || (p.a === b && p.b === a));
+}
+
+function memberLabel(member: CloneClassMemberDTO): string {
+  return `${member.name} — ${formatLocation(member.path, member.startLine, member.endLine)}`;
+}
+
+function MemberColumn({ member, side }: { member: CloneClassMemberDTO; side: string }) {
+  return (
+    <article aria-label={`${side}: ${member.path}`} className="min-w-0 rounded-sm border border-line bg-panel">
+      <header className="space-y-0.5 px-3 py-2">
+        <div className="flex items-center justify-between gap-2">
+          <span className="truncate font-mono text-sm font-semibold" title={member.name}>
+            {member.name}
+          </span>
+          {member.changed ? (
+            <span className="shrink-0 rounded-sm bg-amber-soft px-1.5 py-0.5 font-mono text-[11px] leading-none text-amber" title="Its code differs from the previous snapshot">
+              changed since last release
+            </span>
+          ) : (
+            <span className="shrink-0 font-mono text-[11px] text-muted">as in last release</span>
+          )}
+        </div>
+        <div className="truncate font-mono text-xs text-muted" title={formatLocation(member.path, member.startLine, member.endLine)}>
+          {formatLocation(member.path, member.startLine, member.endLine)}
+          <span className="ml-2">
+            {member.kind} · {member.tokens} tokens
+          </span>
+        </div>
+      </header>
+      <CodeView code={member.code} startLine={member.startLine} label={`Code of ${member.name} in ${member.path}`} />
+    </article>
+  );
+}
+
+/**
+ * Two members of a class side by side, with the similarity of their pair. Classes with more than
+ * two members get a chooser for each side; two members that are only connected through others
+ * have no pair of their own, and the view says so.
+ */
+export function ClassMembers({ detail }: { detail: CloneClassDetailDTO }) {
+  const { members, pairs } = detail;
+  // Start with the most similar pair: the one a reviewer most likely wants to merge first.
+  const best = [...pairs].sort((x, y) => y.similarity - x.similarity)[0];
+  const [left, setLeft] = useState(best ? best.a : 0);
+  const [right, setRight] = useState(best ? best.b : Math.min(1, members.length - 1));
+  const pair = pairOf(pairs, left, right);
+
+  return (
+    <div className="space-y-3">
+      {members.length > 2 ? (
+        <div className="grid gap-3 md:grid-cols-2">
+          <SelectField label="Left" value={left} onChange={(e) => setLeft(Number(e.target.value))}>
+            {members.map((m, i) => (
+              <option key={m.fragmentId} value={i} disabled={i === right}>
+                {memberLabel(m)}
+              </option>
+            ))}
+          </SelectField>
+          <SelectField label="Right" value={right} onChange={(e) => setRight(Number(e.target.value))}>
+            {members.map((m, i) => (
+              <option key={m.fragmentId} value={i} disabled={i === left}>
+                {memberLabel(m)}
+              </option>
+            ))}
+          </SelectField>
+        </div>
+      ) : null}
+      <div className="flex items-center gap-3 font-mono text-xs" aria-label="Pair shown" role="status">
+        {pair ? (
+          <>
+            <span className="rounded-sm bg-accent-soft px-1.5 py-0.5 text-accent-strong">similarity {formatSimilarity(pair.similarity)}</span>
+            <span className="text-muted">{TYPE_NAMES[pair.type]}</span>
+          </>
+        ) : (
+          <span className="text-muted">No direct pair: these two are in one class through other members.</span>
+        )}
+      </div>
+      <div className="grid gap-3 lg:grid-cols-2">
+        {members[left] ? <MemberColumn member={members[left]} side="Left" /> : null}
+        {members[right] && right !== left ? <MemberColumn member={members[right]} side="Right" /> : null}
+      </div>
+    </div>
+  );
+}
+
+/** Every pair of the class, most similar first. */
+export function ClassPairs({ detail }: { detail: CloneClassDetailDTO }) {
+  const { members, pairs } = detail;
+  return (
+    <table className="w-full text-sm" aria-label="Pairs">
+      <thead>
+        <tr className="text-left text-xs tracking-wide text-muted uppercase">
+          <th className="pb-2 font-semibold">Member</th>
+          <th className="pb-2 font-semibold">Member</th>
+          <th className="pb-2 text-right font-semibold">Similarity</th>
+          <th className="pb-2 text-right font-semibold">Type</th>
+        </tr>
+      </thead>
+      <tbody className="font-mono text-xs">
+        {[...pairs]
+          .sort((x, y) => y.similarity - x.similarity)
+          .map((p) => (
+            <tr key={`${p.a}-${p.b}`} className="border-t border-line">
+              <td className="py-1.5 pr-3">
+                {members[p.a].name} <span className="text-muted">{members[p.a].path}</span>
+              </td>
+              <td className="py-1.5 pr-3">
+                {members[p.b].name} <span className="text-muted">{members[p.b].path}</span>
+              </td>
+              <td className="py-1.5 pr-3 text-right tabular-nums">{formatSimilarity(p.similarity)}</td>
+              <td className="py-1.5 text-right">{p.type}</td>
+            </tr>
+          ))}
+      </tbody>
+    </table>
+  );
+}
