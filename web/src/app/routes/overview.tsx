@@ -59,7 +59,7 @@ export function OverviewRoute() {
       <PageHeader title="Overview" subtitle={`${session.data?.organisation?.name ?? ''} · signed in as ${ROLE_LABELS[user.role]}`} />
       <div className="mb-5 grid grid-cols-2 gap-3 lg:grid-cols-4">
         {(figures ?? figuresOf([])).map((figure) => (
-          <div key={figure.label} className="rounded-sm border border-line bg-panel px-4 py-3">
+          <div key={figure.label} role="group" aria-label={figure.label} className="rounded-sm border border-line bg-panel px-4 py-3">
             <div className="text-xs tracking-wide text-muted uppercase">{figure.label}</div>
             <div className={`mt-1 font-mono text-2xl tabular-nums ${!figures ? 'text-ink/40' : figure.alarm ? 'text-danger' : ''}`}>
               {figures ? figure.value : '—'}

@@ -22,8 +22,10 @@ export function TrendChartView({ metrics, height = 220 }: { metrics: RepositoryM
   const data = metrics.points.map((p) => ({ label: p.label, ratio: p.cloneRatio * 100 }));
   const budget = metrics.cloneBudget === null ? null : metrics.cloneBudget * 100;
   const top = Math.max(budget ?? 0, ...data.map((d) => d.ratio));
-  // Headroom above the highest of line and budget, rounded to a whole percent so the ticks read well.
-  const domainTop = Math.max(1, Math.ceil(top * 1.25));
+  // Headroom above the highest of line and budget, up to a round step, so the ticks read 0, 10, 20 …
+  const step = top <= 4 ? 1 : top <= 10 ? 2 : top <= 25 ? 5 : 10;
+  const domainTop = Math.min(100, Math.max(step, Math.ceil((top * 1.15) / step) * step));
+  const ticks = Array.from({ length: domainTop / step + 1 }, (_, i) => i * step);
   return (
     <figure aria-label="Clone ratio by release" data-points={data.length}>
       <LineChart responsive style={{ width: '100%', height }} data={data} margin={{ top: 8, right: 16, bottom: 0, left: 0 }}>
@@ -31,6 +33,7 @@ export function TrendChartView({ metrics, height = 220 }: { metrics: RepositoryM
         <XAxis dataKey="label" tick={TICK} tickLine={false} axisLine={{ stroke: GRID }} />
         <YAxis
           domain={[0, domainTop]}
+          ticks={ticks}
           tick={TICK}
           tickLine={false}
           axisLine={false}
@@ -48,7 +51,7 @@ export function TrendChartView({ metrics, height = 220 }: { metrics: RepositoryM
             stroke={BUDGET}
             strokeDasharray="5 4"
             ifOverflow="extendDomain"
-            label={{ value: `budget ${formatPercent(metrics.cloneBudget)}`, position: 'insideTopRight', fill: BUDGET, fontSize: 11 }}
+            label={{ value: `budget ${formatPercent(metrics.cloneBudget)}`, position: 'insideBottomLeft', fill: BUDGET, fontSize: 11 }}
           />
         ) : null}
         <Line type="linear" dataKey="ratio" stroke={ACCENT} strokeWidth={2} dot={{ r: 3, fill: ACCENT }} isAnimationActive={false} />

@@ -1,0 +1,212 @@
+import fs from 'node:fs';
+import type { Server } from 'node:http';
+import type { AddressInfo } from 'node:net';
+import os from 'node:os';
+import path from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createApp } from '../../server/app';
+import { projectRoot } from '../../server/config';
+import type { LoadSnapshotResult } from '../../server/commands/loadSnapshot';
+import type { Repository } from '../../server/models/Repository';
+import type { User } from '../../server/models/User';
+import { RELEASES, TEST_PASSWORD, buildRepository, buildTeam, loadFolder, useDatabase } from '../support';
+
+useDatabase();
+
+/**
+ * A copy of the demo's pricing rule with every name changed, as an engineer who found a bug in it
+ * would paste it (the same invented snippet as tests/server/routes/find-copies.test.ts).
+ */
+const PASTED = `function costOfTrain(units, km, deal) {
+  let acc = 0;
+  for (const u of units) {
+    const base = u.loadTonnes * deal.ratePerTonne + u.axles * 3;
+    const hazard = u.hazardous ? base * 0.15 : 0;
+    acc += (base + hazard) * Math.max(1, km / 100);
+  }
+  if (deal.discount > 0) {
+    acc = acc - acc * deal.discount;
+  }
+  return Math.round(acc * 100) / 100;
+}`;
+
+const screenshots = path.join(projectRoot, 'test-results', 'screenshots');
+
+let server: Server;
+let baseUrl: string;
+let context: BrowserContext;
+let profileDir: string;
+let team: Awaited<ReturnType<typeof buildTeam>>;
+let repository: Repository;
+let loads: Record<'v1' | 'v2' | 'v3', LoadSnapshotResult>;
+
+beforeAll(async () => {
+  if (!fs.existsSync(path.join(projectRoot, 'dist', 'web', 'index.html'))) {
+    throw new Error('dist/web is missing: run the tests with `npm test`, which builds the client first');
+  }
+  team = await buildTeam();
+  repository = await buildRepository({ organisationId: team.organisation.id, name: 'freight-platform', description: 'Brackenfold consignment pricing and yard tools' });
+  loads = {
+    v1: await loadFolder(repository, `${RELEASES}/v1`, 'v1'),
+    v2: await loadFolder(repository, `${RELEASES}/v2`, 'v2'),
+    v3: await loadFolder(repository, `${RELEASES}/v3`, 'v3'),
+  };
+  // A budget between the lowest and the highest release, so the reference line sits inside the chart.
+  const ratios = Object.values(loads).map((l) => l.cloneRatio);
+  await repository.update({ cloneBudget: (Math.round(((Math.min(...ratios) + Math.max(...ratios)) / 2) * 1000) / 1000).toFixed(3) });
+
+  server = await new Promise<Server>((resolve) => {
+    const s = createApp().listen(0, '127.0.0.1', () => resolve(s));
+  });
+  baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  fs.mkdirSync(screenshots, { recursive: true });
+  profileDir = fs.mkdtempSync(path.join(os.tmpdir(), 'chromium-profile-'));
+  context = await chromium.launchPersistentContext(profileDir, {
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    viewport: { width: 1440, height: 900 },
+    args: [
+      '--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
+      '--disable-background-networking', '--disable-component-update', '--disable-sync',
+    ],
+  });
+}, 180_000);
+
+afterAll(async () => {
+  await context?.close();
+  if (profileDir) fs.rmSync(profileDir, { recursive: true, force: true });
+  await new Promise<void>((resolve) => (server ? server.close(() => resolve()) : resolve()));
+});
+
+async function signIn(page: Page, user: User) {
+  // One browser profile serves both tests: start each without the previous user's session.
+  await context.clearCookies();
+  await page.goto(`${baseUrl}/sign-in`, { waitUntil: 'networkidle' });
+  await page.getByLabel('E-mail').fill(user.email);
+  await page.getByLabel('Password').fill(TEST_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByRole('navigation', { name: 'Main' }).waitFor();
+}
+
+/** A page that records console errors (401s before sign-in aside). */
+async function openPage(): Promise<{ page: Page; consoleErrors: string[] }> {
+  const page = await context.newPage();
+  const consoleErrors: string[] = [];
+  page.on('console', (m) => {
+    if (m.type() === 'error' && !/401|Unauthorized/.test(m.text())) consoleErrors.push(m.text());
+  });
+  return { page, consoleErrors };
+}
+
+describe('reviewing clones with Chromium', () => {
+  it('takes a viewer from the repository list through the trend and the v2 snapshot to the drifted class, side by side', async () => {
+    const { page, consoleErrors } = await openPage();
+    try {
+      await signIn(page, team.viewer);
+      // The overview tiles come from the repository list: one repository, its latest ratio both highest and lowest.
+      const v3Percent = `${(loads.v3.cloneRatio * 100).toFixed(1)} %`;
+      const highest = page.getByRole('group', { name: 'Highest clone ratio' });
+      await expect.poll(() => highest.textContent()).toContain(v3Percent);
+      await expect.poll(() => page.getByRole('group', { name: 'Repositories' }).textContent()).toMatch(/^Repositories1/);
+      await page.locator('figure[aria-label="Clone ratio by release"] .recharts-line-dot').first().waitFor();
+      await page.screenshot({ path: path.join(screenshots, 'review-overview.png'), fullPage: true });
+
+      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Repositories' }).click();
+      const row = page.getByRole('row', { name: /freight-platform/ });
+      await row.waitFor();
+      await expect(row.textContent()).resolves.toContain(v3Percent);
+      // The budget lies between the releases' ratios; "over budget" shows exactly when v3 is above it.
+      const overBudget = loads.v3.cloneRatio > Number(repository.cloneBudget);
+      expect(await row.getByText('over budget').count()).toBe(overBudget ? 1 : 0);
+      await page.screenshot({ path: path.join(screenshots, 'review-repositories.png'), fullPage: true });
+
+      await row.getByRole('link', { name: 'freight-platform' }).click();
+      await page.getByRole('heading', { name: 'freight-platform' }).waitFor();
+      // The trend: one dot per release, oldest first, with the budget line.
+      const chart = page.locator('figure[aria-label="Clone ratio by release"]');
+      await chart.locator('.recharts-line-dots').waitFor();
+      expect(await chart.locator('.recharts-line-dot').count()).toBe(3);
+      await expect.poll(() => chart.locator('.recharts-xAxis-tick-labels .recharts-cartesian-axis-tick-value').allTextContents()).toEqual(['v1', 'v2', 'v3']);
+      expect(await chart.locator('.recharts-reference-line').count()).toBe(1);
+      // A viewer reads; settings and delete are for leads.
+      expect(await page.getByRole('button', { name: 'Save settings' }).count()).toBe(0);
+      const snapshots = page.getByRole('table', { name: 'Snapshots' });
+      expect(await snapshots.locator('tbody tr td:first-child').allTextContents()).toEqual(['v3', 'v2', 'v1']);
+      await page.screenshot({ path: path.join(screenshots, 'review-repository.png'), fullPage: true });
+
+      await snapshots.getByRole('link', { name: 'v2', exact: true }).click();
+      await page.getByRole('heading', { name: 'Snapshot v2' }).waitFor();
+      await page.getByRole('table', { name: 'Clone classes' }).waitFor();
+      await page.getByLabel('Status', { exact: true }).selectOption('drifted');
+      await page.waitForURL(/[?&]status=drifted\b/);
+      const classRows = page.getByRole('table', { name: 'Clone classes' }).locator('tbody tr');
+      await expect.poll(() => classRows.count()).toBe(1);
+      await expect(classRows.first().textContent()).resolves.toMatch(/drifted.*billing\/tariff\.js.*yard\/shunting\.js/);
+      await page.screenshot({ path: path.join(screenshots, 'review-snapshot-v2-drifted.png'), fullPage: true });
+
+      // The filter lives in the URL: a reload keeps it.
+      await page.reload({ waitUntil: 'networkidle' });
+      expect(await page.getByLabel('Status', { exact: true }).inputValue()).toBe('drifted');
+      await expect.poll(() => classRows.count()).toBe(1);
+
+      await classRows.first().getByRole('link', { name: /^Open clone class/ }).click();
+      await page.getByRole('heading', { name: /^Clone class #\d+$/ }).waitFor();
+      const left = page.getByRole('article', { name: /^Left: / });
+      const right = page.getByRole('article', { name: /^Right: / });
+      await left.waitFor();
+      const sides = [await left.getAttribute('aria-label'), await right.getAttribute('aria-label')].sort();
+      expect(sides.map((s) => s!.replace(/^(Left|Right): /, '')).sort()).toEqual(['billing/tariff.js', 'yard/shunting.js']);
+      // Both members' code is on screen, next to each other (same top, left column first).
+      await expect(page.getByRole('region', { name: /Code of priceConsignment/ }).textContent()).resolves.toContain('export function priceConsignment(wagons, distanceKm, contract)');
+      await expect(page.getByRole('region', { name: /Code of quoteYardMove/ }).textContent()).resolves.toContain('quoteYardMove');
+      const [leftBox, rightBox] = [await left.boundingBox(), await right.boundingBox()];
+      expect(leftBox!.y).toBe(rightBox!.y);
+      expect(rightBox!.x).toBeGreaterThanOrEqual(leftBox!.x + leftBox!.width);
+      // Only the tariff copy was edited in v2: the class drifted.
+      expect(await page.getByText('changed since last release').count()).toBe(1);
+      const tariff = page.getByRole('article', { name: /billing\/tariff\.js$/ });
+      expect(await tariff.getByText('changed since last release').count()).toBe(1);
+      // Code is set in IBM Plex Mono.
+      const family = await page.getByRole('region', { name: /Code of priceConsignment/ }).locator('pre').evaluate((el) => getComputedStyle(el).fontFamily);
+      expect(family).toContain('IBM Plex Mono');
+      await expect(page.getByRole('status', { name: 'Pair shown' }).textContent()).resolves.toMatch(/similarity 0\.\d{3}|similarity 1\.000/);
+      await page.screenshot({ path: path.join(screenshots, 'review-clone-class.png'), fullPage: true });
+      expect(consoleErrors).toEqual([]);
+    } finally {
+      await page.close();
+    }
+  }, 90_000);
+
+  it('lets an engineer paste a copy of the pricing rule into find copies and see the copies in the latest release', async () => {
+    const { page, consoleErrors } = await openPage();
+    try {
+      await signIn(page, team.engineer);
+      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Find copies' }).click();
+      await page.getByRole('heading', { name: 'Find copies' }).waitFor();
+      // The shared schema's message, before anything is sent.
+      await page.getByRole('button', { name: 'Find copies' }).click();
+      await page.getByText('Paste some code.').waitFor();
+
+      await page.getByLabel('Code').fill(PASTED);
+      await page.getByRole('button', { name: 'Find copies' }).click();
+      const table = page.getByRole('table', { name: 'Copies found' });
+      await table.waitFor();
+      const rows = await table.locator('tbody tr').allInnerTexts();
+      const found = rows.map((r) => r.split('\t').map((cell) => cell.trim()));
+      // Every copy is in the latest snapshot of the repository, at or above the default threshold.
+      expect(found.every((cells) => cells[1] === 'freight-platform@v3')).toBe(true);
+      expect(found.every((cells) => Number(cells[0]) >= 0.8)).toBe(true);
+      // The demo's v3 has the rule in billing (the original), the yard and the sales desk quotes.
+      expect(found.map((cells) => `${cells[2].replace(/:.*/, '')} ${cells[3]}`).sort()).toEqual([
+        'billing/quotes.js quoteForCustomer',
+        'billing/tariff.js priceConsignment',
+        'yard/shunting.js quoteYardMove',
+      ]);
+      await page.screenshot({ path: path.join(screenshots, 'review-find-copies.png'), fullPage: true });
+      expect(consoleErrors).toEqual([]);
+    } finally {
+      await page.close();
+    }
+  }, 60_000);
+});
