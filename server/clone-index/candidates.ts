@@ -47,7 +47,8 @@ export function probeKeys(ranks: Int32Array, t: Threshold) {
  */
 export function probeHitFilter(t: Threshold, probe = 'p', entry = 'e'): string {
   const { p, q } = t;
-  const alpha = `((${p} * (${probe}.sz + ${entry}.size) + ${p + q - 1}) / ${p + q})`;
+  // bigint: p and q reach 10^6 for six-decimal thresholds, and p·(a+b) would overflow int4
+  const alpha = `((${p}::bigint * (${probe}.sz + ${entry}.size) + ${p + q - 1}) / ${p + q})`;
   return `${probe}.sz - ${probe}.pos >= ${alpha} and ${entry}.size - ${entry}.position >= ${alpha}`;
 }
 

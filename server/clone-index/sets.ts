@@ -172,31 +172,30 @@ export async function probeSets(
   t: Threshold,
   skip: (probe: number, setId: number) => boolean,
 ): Promise<{ matches: SetMatch[]; candidates: number }> {
+  // Per key only (probe, rank, position); sizes per probe. Every int[] parameter is parsed by the
+  // server, so fewer and shorter arrays make a cheaper round trip; the length bounds are computed there.
   const probeIndex: number[] = [];
   const rank: number[] = [];
   const position: number[] = [];
-  const lo: number[] = [];
-  const hi: number[] = [];
-  const size: number[] = [];
+  const sizes = probes.map((x) => x.length);
   probes.forEach((x, p) => {
-    const keys = probeKeys(x, t);
-    keys.ranks.forEach((r, i) => {
+    probeKeys(x, t).ranks.forEach((r, i) => {
       probeIndex.push(p);
       rank.push(r);
       position.push(i);
-      lo.push(keys.lo);
-      hi.push(keys.hi);
-      size.push(x.length);
     });
   });
   if (rank.length === 0) return { matches: [], candidates: 0 };
+  const { p, q } = t;
   const rows = await select<ProbeCandidate>(
     tx,
     `select distinct p.probe, e.set_id as "setId", e.size
-       from unnest($1::int[], $2::int[], $3::int[], $4::int[], $5::int[], $6::int[]) as p(probe, rank, pos, lo, hi, sz)
-       join prefix_entries e on e.rank = p.rank and e.size between p.lo and p.hi
+       from (select k.probe, k.rank, k.pos, ($4::int[])[k.probe + 1] as sz
+               from unnest($1::int[], $2::int[], $3::int[]) as k(probe, rank, pos)) as p
+       join prefix_entries e
+         on e.rank = p.rank and e.size between (${p}::bigint * p.sz + ${q - 1}) / ${q} and (${q}::bigint * p.sz) / ${p}
       where ${probeHitFilter(t)}`,
-    [probeIndex, rank, position, lo, hi, size],
+    [intArrayLiteral(probeIndex), intArrayLiteral(rank), intArrayLiteral(position), intArrayLiteral(sizes)],
   );
   const candidates = rows.filter((c) => !skip(c.probe, c.setId));
   const stored = await loadSets(tx, [...new Set(candidates.map((c) => c.setId))]);
@@ -244,6 +243,8 @@ async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: numbe
   // The filter is symmetric, so a pair of two new sets is found by both: only the probe with the
   // larger id keeps it, which halves the verification work among new sets.
   const isNew = new Set(newSets.map((s) => s.id));
+  // The probe queries are large but simple index lookups: compiling them (JIT) costs more than it saves.
+  await execute(tx, 'set local jit = off');
   for (const [start, end] of chunks(newSets.length, Math.max(1, batchSize))) {
     const batch = newSets.slice(start, end);
     const result = await probeSets(
