@@ -18,7 +18,7 @@ export function FindCopiesRoute() {
         subtitle="Found a bug in one function? Paste it and see every other copy in the latest release of each repository."
       />
       <div className="grid items-start gap-4 xl:grid-cols-[minmax(0,5fr)_minmax(0,6fr)]">
-        <Panel title="Code">
+        <Panel title="Pasted code">
           <FindCopiesForm onSubmit={(input) => search.mutate(input)} pending={search.isPending} serverErrors={fieldError} />
         </Panel>
         <Panel

@@ -19,7 +19,7 @@ function SnapshotFigures({ snapshot }: { snapshot: SnapshotDTO }) {
   const m = snapshot.metrics;
   const figures: [string, string][] = [
     ['clone ratio', formatPercent(m?.cloneRatio ?? snapshot.cloneRatio)],
-    ['files', String(snapshot.analyzedFileCount)],
+    ['files', String(snapshot.fileCount)],
     ['fragments', String(snapshot.fragmentCount)],
     ['clone pairs', m ? String(m.pairCount) : '—'],
     ['classes', m ? String(m.classCount) : '—'],

@@ -75,6 +75,7 @@ export function FindCopiesForm({
         placeholder="Paste a function, or a few"
         hint="Searched in the latest snapshot of every repository; the code is not stored."
         error={shown.text}
+        wrap="off"
         className="resize-y"
       />
       <Button type="submit" disabled={pending}>

@@ -48,7 +48,7 @@ export function SnapshotTable({ repositoryId }: { repositoryId: number }) {
               {snapshot.status}
             </td>
             <td className="py-1.5 pr-4 text-right">
-              {snapshot.analyzedFileCount}
+              {snapshot.fileCount}
               {snapshot.failedCount > 0 ? <span className="ml-1 text-xs text-danger">({snapshot.failedCount} failed)</span> : null}
             </td>
             <td className="py-1.5 pr-4 text-right">{snapshot.fragmentCount}</td>

@@ -28,7 +28,7 @@ export function TrendChartView({ metrics, height = 220 }: { metrics: RepositoryM
   const ticks = Array.from({ length: domainTop / step + 1 }, (_, i) => i * step);
   return (
     <figure aria-label="Clone ratio by release" data-points={data.length}>
-      <LineChart responsive style={{ width: '100%', height }} data={data} margin={{ top: 8, right: 16, bottom: 0, left: 0 }}>
+      <LineChart responsive style={{ width: '100%', height }} data={data} margin={{ top: 8, right: budget !== null ? 96 : 16, bottom: 0, left: 0 }}>
         <CartesianGrid stroke={GRID} vertical={false} />
         <XAxis dataKey="label" tick={TICK} tickLine={false} axisLine={{ stroke: GRID }} />
         <YAxis
@@ -51,7 +51,7 @@ export function TrendChartView({ metrics, height = 220 }: { metrics: RepositoryM
             stroke={BUDGET}
             strokeDasharray="5 4"
             ifOverflow="extendDomain"
-            label={{ value: `budget ${formatPercent(metrics.cloneBudget)}`, position: 'insideBottomLeft', fill: BUDGET, fontSize: 11 }}
+            label={{ value: `budget ${formatPercent(metrics.cloneBudget)}`, position: 'right', fill: BUDGET, fontSize: 11 }}
           />
         ) : null}
         <Line type="linear" dataKey="ratio" stroke={ACCENT} strokeWidth={2} dot={{ r: 3, fill: ACCENT }} isAnimationActive={false} />
