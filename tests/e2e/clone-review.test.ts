@@ -188,7 +188,7 @@ describe('reviewing clones with Chromium', () => {
       await page.getByRole('button', { name: 'Find copies' }).click();
       await page.getByText('Paste some code.').waitFor();
 
-      await page.getByLabel('Code').fill(PASTED);
+      await page.getByLabel('Code', { exact: true }).fill(PASTED);
       await page.getByRole('button', { name: 'Find copies' }).click();
       const table = page.getByRole('table', { name: 'Copies found' });
       await table.waitFor();
@@ -204,6 +204,54 @@ describe('reviewing clones with Chromium', () => {
         'yard/shunting.js quoteYardMove',
       ]);
       await page.screenshot({ path: path.join(screenshots, 'review-find-copies.png'), fullPage: true });
+      expect(consoleErrors).toEqual([]);
+    } finally {
+      await page.close();
+    }
+  }, 60_000);
+
+  it('lets a lead add a repository, tighten the budget of another until it shows over budget, and delete the new one', async () => {
+    const { page, consoleErrors } = await openPage();
+    try {
+      await signIn(page, team.lead);
+      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Repositories' }).click();
+      const create = page.getByRole('region', { name: 'Add a repository' });
+      await create.getByLabel('Name').fill('depot tools!');
+      await create.getByRole('button', { name: 'Add repository' }).click();
+      // The shared schema's message; nothing was created.
+      await create.getByText('Letters, digits, dot, dash, underscore and slash only.').waitFor();
+      await create.getByLabel('Name').fill('depot-tools');
+      await create.getByLabel('Clone budget').fill('0.1');
+      await create.getByRole('button', { name: 'Add repository' }).click();
+      await page.getByRole('heading', { name: 'depot-tools' }).waitFor();
+      await page.getByText('No snapshots yet.').waitFor();
+
+      await page.goto(`${baseUrl}/repositories/${repository.id}`, { waitUntil: 'networkidle' });
+      await page.getByRole('heading', { name: 'freight-platform' }).waitFor();
+      // A budget just under the latest release's ratio puts the repository over it.
+      const budget = Math.floor(loads.v3.cloneRatio * 100 - 2) / 100;
+      const settings = page.getByRole('region', { name: 'Settings' });
+      await settings.getByLabel('Clone budget').fill(String(budget));
+      await settings.getByLabel('Ignore').fill('vendor/\n\n  **/*.generated.js  ');
+      await settings.getByRole('button', { name: 'Save settings' }).click();
+      await settings.getByText('Settings saved.').waitFor();
+      await page.getByRole('heading', { name: 'freight-platform' }).locator('..').getByText('over budget').waitFor();
+      await expect
+        .poll(() => page.locator('figure[aria-label="Clone ratio by release"] svg').textContent())
+        .toContain(`budget ${(budget * 100).toFixed(1)} %`);
+      // What the server kept: blank lines dropped, patterns trimmed.
+      await page.reload({ waitUntil: 'networkidle' });
+      expect(await page.getByRole('region', { name: 'Settings' }).getByLabel('Ignore').inputValue()).toBe('vendor/\n**/*.generated.js');
+      await page.screenshot({ path: path.join(screenshots, 'review-repository-lead.png'), fullPage: true });
+
+      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Repositories' }).click();
+      await page.getByRole('row', { name: /freight-platform/ }).getByText('over budget').waitFor();
+      await page.getByRole('link', { name: 'depot-tools' }).click();
+      await page.getByRole('button', { name: 'Delete repository…' }).click();
+      await page.getByRole('button', { name: 'Delete for good' }).click();
+      await page.waitForURL(/\/repositories$/);
+      await page.getByRole('row', { name: /freight-platform/ }).waitFor();
+      await expect.poll(() => page.getByRole('link', { name: 'depot-tools' }).count()).toBe(0);
       expect(consoleErrors).toEqual([]);
     } finally {
       await page.close();

@@ -1,7 +1,7 @@
-import type { ReactNode } from 'react';
+import { useId, type ReactNode } from 'react';
 import clsx from 'clsx';
 
-/** A bordered section with an optional title bar and actions. */
+/** A bordered section with an optional title bar and actions; the title names the section (a landmark). */
 export function Panel({
   title,
   actions,
@@ -13,11 +13,14 @@ export function Panel({
   children: ReactNode;
   className?: string;
 }) {
+  const titleId = useId();
   return (
-    <section className={clsx('rounded-sm border border-line bg-panel', className)}>
+    <section aria-labelledby={title ? titleId : undefined} className={clsx('rounded-sm border border-line bg-panel', className)}>
       {title || actions ? (
         <header className="flex items-center justify-between gap-4 border-b border-line px-4 py-2">
-          <h2 className="text-xs font-semibold tracking-wider text-muted uppercase">{title}</h2>
+          <h2 id={titleId} className="text-xs font-semibold tracking-wider text-muted uppercase">
+            {title}
+          </h2>
           {actions}
         </header>
       ) : null}

@@ -1,4 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { RepositoryListDTO } from '../../../../../shared/api/repositories';
 import { api } from '../../../lib/api-client';
 import { repositoriesQueryOptions } from './get-repositories';
 
@@ -8,14 +9,21 @@ export function deleteRepository(id: number): Promise<void> {
 }
 
 /**
- * Deletes a repository with its snapshots, then refetches the list only (`exact`): the deleted
- * repository's own keys would answer 404 if refetched while its page is still on screen; ids are
- * never reused, so they simply age out of the cache.
+ * Deletes a repository with its snapshots. The cached list drops it at once (the list page is
+ * usually the next screen and would otherwise show it until its refetch lands), then the list
+ * alone is refetched (`exact`): the deleted repository's own keys would answer 404 if refetched
+ * while its page is still on screen; ids are never reused, so they simply age out of the cache.
  */
 export function useDeleteRepository() {
   const queryClient = useQueryClient();
+  const listKey = repositoriesQueryOptions().queryKey;
   return useMutation({
     mutationFn: deleteRepository,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: repositoriesQueryOptions().queryKey, exact: true }),
+    onSuccess: (_nothing, id) => {
+      queryClient.setQueryData<RepositoryListDTO>(listKey, (list) =>
+        list ? { repositories: list.repositories.filter((r) => r.id !== id) } : list,
+      );
+      return queryClient.invalidateQueries({ queryKey: listKey, exact: true });
+    },
   });
 }
