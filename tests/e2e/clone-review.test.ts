@@ -172,6 +172,21 @@ describe('reviewing clones with Chromium', () => {
       expect(family).toContain('IBM Plex Mono');
       await expect(page.getByRole('status', { name: 'Pair shown' }).textContent()).resolves.toMatch(/similarity 0\.\d{3}|similarity 1\.000/);
       await page.screenshot({ path: path.join(screenshots, 'review-clone-class.png'), fullPage: true });
+
+      // v3 adds a third copy (billing/quotes.js): the class grew, and a chooser picks which two to compare.
+      await page.goto(`${baseUrl}/snapshots/${loads.v3.snapshotId}?status=grown`, { waitUntil: 'networkidle' });
+      await expect.poll(() => classRows.count()).toBe(1);
+      await classRows.first().getByRole('link', { name: /^Open clone class/ }).click();
+      const chooseRight = page.getByLabel('Right', { exact: true });
+      await chooseRight.waitFor();
+      expect(await chooseRight.locator('option').count()).toBe(3);
+      const optionLabel = async (file: string) => (await chooseRight.locator('option', { hasText: file }).textContent())!;
+      await page.getByLabel('Left', { exact: true }).selectOption({ label: await optionLabel('billing/tariff.js') });
+      await chooseRight.selectOption({ label: await optionLabel('billing/quotes.js') });
+      await expect.poll(() => left.getAttribute('aria-label')).toBe('Left: billing/tariff.js');
+      await expect.poll(() => right.getAttribute('aria-label')).toBe('Right: billing/quotes.js');
+      await expect(page.getByRole('region', { name: /Code of quoteForCustomer/ }).textContent()).resolves.toContain('quoteForCustomer(units, kilometres, terms)');
+      await page.screenshot({ path: path.join(screenshots, 'review-clone-class-three.png'), fullPage: true });
       expect(consoleErrors).toEqual([]);
     } finally {
       await page.close();

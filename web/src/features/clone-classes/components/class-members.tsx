@@ -27,13 +27,12 @@ function MemberColumn({ member, side }: { member: CloneClassMemberDTO; side: str
           <span className="truncate font-mono text-sm font-semibold" title={member.name}>
             {member.name}
           </span>
+          {/* No opposite label: the API's `changed` is also false for a member that is new in this release. */}
           {member.changed ? (
             <span className="shrink-0 rounded-sm bg-amber-soft px-1.5 py-0.5 font-mono text-[11px] leading-none text-amber" title="Its code differs from the previous snapshot">
               changed since last release
             </span>
-          ) : (
-            <span className="shrink-0 font-mono text-[11px] text-muted">as in last release</span>
-          )}
+          ) : null}
         </div>
         <div className="truncate font-mono text-xs text-muted" title={formatLocation(member.path, member.startLine, member.endLine)}>
           {formatLocation(member.path, member.startLine, member.endLine)}
@@ -59,21 +58,30 @@ export function ClassMembers({ detail }: { detail: CloneClassDetailDTO }) {
   const [left, setLeft] = useState(best ? best.a : 0);
   const [right, setRight] = useState(best ? best.b : Math.min(1, members.length - 1));
   const pair = pairOf(pairs, left, right);
+  // Picking on one side the member shown on the other swaps the two, so both sides stay distinct.
+  const pickLeft = (i: number) => {
+    if (i === right) setRight(left);
+    setLeft(i);
+  };
+  const pickRight = (i: number) => {
+    if (i === left) setLeft(right);
+    setRight(i);
+  };
 
   return (
     <div className="space-y-3">
       {members.length > 2 ? (
         <div className="grid gap-3 md:grid-cols-2">
-          <SelectField label="Left" value={left} onChange={(e) => setLeft(Number(e.target.value))}>
+          <SelectField label="Left" value={left} onChange={(e) => pickLeft(Number(e.target.value))}>
             {members.map((m, i) => (
-              <option key={m.fragmentId} value={i} disabled={i === right}>
+              <option key={m.fragmentId} value={i}>
                 {memberLabel(m)}
               </option>
             ))}
           </SelectField>
-          <SelectField label="Right" value={right} onChange={(e) => setRight(Number(e.target.value))}>
+          <SelectField label="Right" value={right} onChange={(e) => pickRight(Number(e.target.value))}>
             {members.map((m, i) => (
-              <option key={m.fragmentId} value={i} disabled={i === left}>
+              <option key={m.fragmentId} value={i}>
                 {memberLabel(m)}
               </option>
             ))}
