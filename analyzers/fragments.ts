@@ -96,6 +96,22 @@ class JoinedForms {
 }
 
 /**
+ * The repeat numbers 2..max in the string order of their decimal spelling, the order in which
+ * `s#n` sort: a preorder walk of the digit tree, linear in max.
+ *
+ * @example repeatsInStringOrder(12) // [10, 11, 12, 2, 3, 4, 5, 6, 7, 8, 9]
+ */
+function repeatsInStringOrder(max: number): number[] {
+  const out: number[] = [];
+  const visit = (n: number): void => {
+    if (n >= 2) out.push(n);
+    for (let digit = 0; digit <= 9 && n * 10 + digit <= max; digit++) visit(n * 10 + digit);
+  };
+  for (let first = 1; first <= 9 && first <= max; first++) visit(first);
+  return out;
+}
+
+/**
  * Per-file shingle machinery for the windows of k tokens inside [lo, hi). Each token form gets a
  * small integer id, each window a numeric key (exact while vocabulary^k stays below 2^53) and a
  * dense window id. A fragment's n-th repeat of a window is the string `shingle#n`, and n can be no
@@ -159,32 +175,65 @@ class WindowTable {
       counts[d]!++;
       windowIds[w] = d;
     }
-    const blocks = new Int32Array(firstAt.length);
+    const distinct = firstAt.length;
+    const blocks = new Int32Array(distinct);
     const strings: string[] = new Array(windows);
+    const bases: string[] = new Array(distinct);
     let at = 0;
-    for (let d = 0; d < firstAt.length; d++) {
+    for (let d = 0; d < distinct; d++) {
       blocks[d] = at;
       const w = lo + firstAt[d]!;
       let text = forms[w]!;
       for (let j = 1; j < k; j++) text += SHINGLE_SEPARATOR + forms[w + j]!;
+      bases[d] = text;
       strings[at++] = text;
       for (let n = 2; n <= counts[d]!; n++) strings[at++] = `${text}#${n}`;
     }
-    // All strings are distinct (tokenForm keeps `#n` and the separator out of tokens), so the
-    // comparator never sees a tie and the order is exactly the default sort's.
-    const order = Array.from({ length: windows }, (_, i) => i);
-    order.sort((a, b) => (strings[a]! < strings[b]! ? -1 : 1));
+    // All strings are distinct (tokenForm keeps `#n` and the separator out of tokens), so no
+    // comparator below ever sees a tie and the order is exactly the default sort's.
     const ranks = new Int32Array(windows);
     const sorted: string[] = new Array(windows);
-    for (let r = 0; r < windows; r++) {
-      ranks[order[r]!] = r;
-      sorted[r] = strings[order[r]!]!;
+    const baseOrder = Array.from({ length: distinct }, (_, d) => d);
+    baseOrder.sort((a, b) => (bases[a]! < bases[b]! ? -1 : 1));
+    // Every string with prefix p sorts in one interval. So the sorted shingles fall into groups:
+    // a shingle p and the shingles after it that start with p (rare: it takes a last token that
+    // extends another, like `=` and `==`). A group's shingles and their repeats `s#n` fill one
+    // interval of the order, and the groups keep the order of their first shingles. A group of
+    // one is just `s`, then its repeats in the string order of n ("#10" < "#2"); a larger group
+    // is sorted as strings. `s#n` never lands in another group: it would need `s` to end in `#`
+    // and digits, which tokenForm escapes.
+    let r = 0;
+    const place = (u: number) => {
+      ranks[u] = r;
+      sorted[r++] = strings[u]!;
+    };
+    for (let g = 0; g < distinct; ) {
+      const top = bases[baseOrder[g]!]!;
+      let end = g + 1;
+      while (end < distinct && bases[baseOrder[end]!]!.startsWith(top)) end++;
+      if (end === g + 1) {
+        const d = baseOrder[g]!;
+        const block = blocks[d]!;
+        const count = counts[d]!;
+        place(block);
+        const repeats = count <= 9 ? undefined : repeatsInStringOrder(count);
+        for (let i = 0; i < count - 1; i++) place(block + (repeats ? repeats[i]! : i + 2) - 1);
+      } else {
+        const members: number[] = [];
+        for (let i = g; i < end; i++) {
+          const d = baseOrder[i]!;
+          for (let n = 0; n < counts[d]!; n++) members.push(blocks[d]! + n);
+        }
+        members.sort((a, b) => (strings[a]! < strings[b]! ? -1 : 1));
+        for (const u of members) place(u);
+      }
+      g = end;
     }
     this.windowIds = windowIds;
     this.blocks = blocks;
     this.ranks = ranks;
     this.sorted = sorted;
-    this.seen = new Int32Array(firstAt.length);
+    this.seen = new Int32Array(distinct);
   }
 
   /** The shingle set of the tokens [from, to) (inside [lo, hi)), exactly as shingleSet computes it. */
@@ -242,8 +291,10 @@ export function buildFragments(
   const raw: string[] = new Array(hi);
   const normal: string[] = new Array(hi);
   for (let i = lo; i < hi; i++) {
-    raw[i] = tokenForm(tokens.texts[i]!, tokens.classes[i]!, false);
-    normal[i] = tokenForm(tokens.texts[i]!, tokens.classes[i]!, true);
+    const cls = tokens.classes[i]!;
+    raw[i] = tokenForm(tokens.texts[i]!, cls, false);
+    // tokenForm(text, 'other', true) is the raw form; only identifiers and literals change.
+    normal[i] = cls === 'other' ? raw[i]! : tokenForm(tokens.texts[i]!, cls, true);
   }
   const windows = new WindowTable(options.normalize ? normal : raw, options.shingleSize, lo, hi);
   const rawJoined = new JoinedForms(raw, lo, hi);

@@ -140,6 +140,9 @@ function parseWithFallback(text: string, plugins: ParserPlugin[], sourceType: 'm
   const common = {
     plugins,
     tokens: true,
+    // Comments are dropped from the token stream and never read from nodes; not attaching them
+    // to nodes saves a tenth of the parse (node ranges and tokens are the same either way).
+    attachComment: false,
     errorRecovery: true,
     allowReturnOutsideFunction: true,
     allowAwaitOutsideFunction: true,

@@ -1,9 +1,13 @@
 import fs from 'node:fs';
 import { createRequire } from 'node:module';
 import path from 'node:path';
+import { createHash } from 'node:crypto';
 import * as acorn from 'acorn';
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { analyzeFile, analyzeSnippet } from '../../analyzers';
+import { analyzeFile, analyzeSnippet, shingleSet } from '../../analyzers';
+import { buildFragments, resolveOptions, type FragmentSpan } from '../../analyzers/fragments';
+import { tokenForm, type TokenClass, type TokenStream } from '../../analyzers/tokens';
 import type { FileAnalysis, Fragment } from '../../analyzers/types';
 import { analyzeFixture, readFixture } from './languages/fixture';
 
@@ -133,6 +137,79 @@ describe('fragment token ranges', () => {
       const plain = await analyzeFile('a.js', 'function a() { return 1; }\nfunction b() { return 2; }\n', { minTokens: 1 });
       const commented = await analyzeFile('a.js', 'function a() { return 1; }\n/* crane two */\nfunction b() { return 2; } // end\n', { minTokens: 1 });
       expect(commented.fragments.map((f) => [f.tokenStart, f.tokenEnd])).toEqual(plain.fragments.map((f) => [f.tokenStart, f.tokenEnd]));
+    });
+  });
+});
+
+describe('buildFragments', () => {
+  // Token texts chosen to stress the per-file shingle table: tokens that extend others (`=`,
+  // `==`, `a`, `a#`, `a"`), texts that need escaping (`x#2`), and few of them, so windows repeat
+  // ten times and more (`s#10` sorts before `s#2`).
+  const TEXTS = ['=', '==', '===', 'a', 'a#', 'a"', 'a!', '#', 'x#2', 'b', ' '];
+  const CLASSES: TokenClass[] = ['other', 'other', 'identifier', 'string'];
+
+  it('gives every fragment exactly the shingle set, hashes and range of its own tokens (oracle: shingleSet and a plain join)', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.integer({ min: 0, max: TEXTS.length - 1 }), fc.integer({ min: 0, max: CLASSES.length - 1 })), { maxLength: 120 }),
+        fc.array(fc.tuple(fc.nat(), fc.nat()), { maxLength: 8 }),
+        fc.integer({ min: 1, max: 4 }),
+        fc.boolean(),
+        (picked, rawSpans, k, normalize) => {
+          const n = picked.length;
+          const tokens: TokenStream = { starts: [], ends: [], texts: [], classes: [] };
+          picked.forEach(([t, c], i) => {
+            tokens.starts.push(2 * i);
+            tokens.ends.push(2 * i + 1);
+            tokens.texts.push(TEXTS[t]!);
+            tokens.classes.push(CLASSES[c]!);
+          });
+          const spans: FragmentSpan[] = rawSpans.map(([a, b]) => {
+            const start = a % (2 * n + 1);
+            return { name: `f${a}`, kind: 'function', start, end: start + (b % (2 * n + 2 - start)) };
+          });
+          const options = resolveOptions({ shingleSize: k, minTokens: 1, normalize });
+          const fragments = buildFragments(' '.repeat(2 * n + 1), tokens, spans, options);
+          const forms = (norm: boolean) => tokens.texts.map((t, i) => tokenForm(t, tokens.classes[i]!, norm));
+          const sha1 = (parts: string[]) => createHash('sha1').update(parts.join('\u0000')).digest('hex');
+          for (const f of fragments) {
+            const from = f.tokenStart;
+            const to = f.tokenEnd;
+            expect(to - from).toBe(f.tokens);
+            expect(f.shingles).toEqual(shingleSet(forms(normalize).slice(from, to), k));
+            expect(f.rawHash).toBe(sha1(forms(false).slice(from, to)));
+            expect(f.normalizedHash).toBe(sha1(forms(true).slice(from, to)));
+          }
+          // Every span with tokens became a fragment (minTokens 1), each at its own token range
+          // (token i starts at offset 2i).
+          const expected = spans
+            .map((sp) => [Math.min(n, Math.ceil(sp.start / 2)), Math.min(n, Math.ceil(sp.end / 2))] as const)
+            .filter(([a, b]) => b > a)
+            .map(([a, b]) => `${a}-${b}`)
+            .sort();
+          expect(fragments.map((f) => `${f.tokenStart}-${f.tokenEnd}`).sort()).toEqual(expected);
+        },
+      ),
+      { numRuns: 400 },
+    );
+  });
+
+  describe('edge cases', () => {
+    it('gives the same sets when one window repeats more than ten times', () => {
+      const texts = Array.from({ length: 40 }, (_, i) => (i % 2 === 0 ? '=' : '=='));
+      const tokens: TokenStream = { starts: texts.map((_, i) => i), ends: texts.map((_, i) => i + 1), texts, classes: texts.map(() => 'other') };
+      const [whole, tail] = buildFragments(' '.repeat(41), tokens, [
+        { name: 'whole', kind: 'function', start: 0, end: 40 },
+        { name: 'tail', kind: 'function', start: 25, end: 40 },
+      ], resolveOptions({ shingleSize: 2, minTokens: 1 }));
+      expect(whole!.shingles).toEqual(shingleSet(texts, 2));
+      expect(whole!.shingles).toContain('=\u001f==#10');
+      expect(tail!.shingles).toEqual(shingleSet(texts.slice(25), 2));
+    });
+
+    it('returns no fragments for spans without tokens', () => {
+      const tokens: TokenStream = { starts: [0], ends: [1], texts: ['a'], classes: ['identifier'] };
+      expect(buildFragments('a  ', tokens, [{ name: 'empty', kind: 'function', start: 1, end: 3 }], resolveOptions({ minTokens: 0 }))).toEqual([]);
     });
   });
 });
