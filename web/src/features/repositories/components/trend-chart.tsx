@@ -34,6 +34,7 @@ export function TrendChartView({ metrics, height = 220 }: { metrics: RepositoryM
         <YAxis
           domain={[0, domainTop]}
           ticks={ticks}
+          interval={0}
           tick={TICK}
           tickLine={false}
           axisLine={false}
