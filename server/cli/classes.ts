@@ -69,7 +69,17 @@ export async function snapshotReport(repository: Repository, snapshot: Snapshot,
   const pairs = await clonePairsWithin(undefined, instances, threshold);
   const report = buildReport({
     settings: { threshold: settings.threshold, minTokens: settings.minTokens, shingleSize: settings.shingleSize, repository: repository.name, snapshot: snapshot.label },
-    fragments: instances.map((x) => ({ file: x.path, name: x.name, startLine: x.startLine, endLine: x.endLine, tokens: x.tokens, rawHash: x.rawHash, normalizedHash: x.normalizedHash })),
+    fragments: instances.map((x) => ({
+      file: x.path,
+      name: x.name,
+      startLine: x.startLine,
+      endLine: x.endLine,
+      tokens: x.tokens,
+      tokenStart: x.tokenStart,
+      tokenEnd: x.tokenEnd,
+      rawHash: x.rawHash,
+      normalizedHash: x.normalizedHash,
+    })),
     pairs,
     files: { analysed: snapshot.fileCount - snapshot.skippedCount, skipped: snapshot.skippedCount, failed: snapshot.failedCount },
   });

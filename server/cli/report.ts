@@ -17,6 +17,9 @@ export interface ReportFragmentInput {
   startLine: number;
   endLine: number;
   tokens: number;
+  /** The fragment's token range in its file (Fragment.tokenStart/tokenEnd): the clone ratio counts each token once. */
+  tokenStart: number;
+  tokenEnd: number;
   rawHash: string;
   normalizedHash: string;
 }
@@ -87,7 +90,7 @@ export function buildReport(input: BuildReportInput): ScanReport {
   }));
 
   const { cloned, total } = clonedTokens(
-    inputs.map((f) => f.tokens),
+    inputs,
     inputPairs.filter(({ a, b }) => a !== b),
   );
   return {

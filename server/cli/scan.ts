@@ -164,6 +164,8 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
             startLine: fragment.startLine,
             endLine: fragment.endLine,
             tokens: fragment.tokens,
+            tokenStart: fragment.tokenStart,
+            tokenEnd: fragment.tokenEnd,
             rawHash: fragment.rawHash,
             normalizedHash: fragment.normalizedHash,
           });

@@ -87,7 +87,8 @@ export async function classMembers(classId: number, threshold: string) {
     undefined,
     `select sf.id as "snapshotFileId", f.id as "fragmentId", f.set_id as "setId", ss.size as "setSize", sf.path, sf.language,
             f.name, f.kind, f.start_line as "startLine", f.end_line as "endLine", f.start_column as "startColumn",
-            f.end_column as "endColumn", f.tokens, f.raw_hash as "rawHash", f.normalized_hash as "normalizedHash",
+            f.end_column as "endColumn", f.tokens, f.token_start as "tokenStart", f.token_end as "tokenEnd",
+            f.raw_hash as "rawHash", f.normalized_hash as "normalizedHash",
             m.code_changed as "codeChanged", fc.text
        from clone_class_members m
        join snapshot_files sf on sf.id = m.snapshot_file_id

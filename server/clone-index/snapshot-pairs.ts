@@ -16,6 +16,9 @@ export interface Instance {
   startLine: number;
   endLine: number;
   tokens: number;
+  /** the fragment's token range in its file, [tokenStart, tokenEnd) */
+  tokenStart: number;
+  tokenEnd: number;
   rawHash: string;
   normalizedHash: string;
 }
@@ -34,7 +37,8 @@ export async function snapshotInstances(tx: Transaction | undefined, snapshotId:
     tx,
     `select sf.id as "snapshotFileId", f.id as "fragmentId", f.set_id as "setId", s.size as "setSize",
             sf.path, sf.language, f.name, f.kind, f.start_line as "startLine", f.end_line as "endLine",
-            f.tokens, f.raw_hash as "rawHash", f.normalized_hash as "normalizedHash"
+            f.tokens, f.token_start as "tokenStart", f.token_end as "tokenEnd",
+            f.raw_hash as "rawHash", f.normalized_hash as "normalizedHash"
        from snapshot_files sf
        join fragments f on f.analysis_id = sf.analysis_id
        join shingle_sets s on s.id = f.set_id

@@ -210,20 +210,19 @@ async function storeAnalyses(
     [key, fresh.map((f) => f.hash), fresh.map((f) => f.analysis.language), fresh.map((f) => f.analysis.error ?? null)],
   );
   for (const r of rows) analysisIds.set(r.contentHash, r.id);
-  const columns: unknown[][] = Array.from({ length: 13 }, () => []);
+  const columns: unknown[][] = Array.from({ length: 14 }, () => []);
   let setIndex = 0;
   for (const { hash, analysis } of fresh) {
     analysis.fragments.forEach((f, ordinal) => {
-      const values = [analysisIds.get(hash), ordinal, f.name, f.kind, f.startLine, f.startColumn, f.endLine, f.endColumn, f.tokens, f.rawHash, f.normalizedHash, setIds[setIndex++]];
+      const values = [analysisIds.get(hash), ordinal, f.name, f.kind, f.startLine, f.startColumn, f.endLine, f.endColumn, f.tokens, f.tokenStart, f.tokenEnd, f.rawHash, f.normalizedHash, setIds[setIndex++]];
       values.forEach((v, i) => columns[i].push(v));
     });
   }
-  columns.pop();
   for (const [start, end] of chunks(columns[0].length, 20_000)) {
     await execute(
       tx,
-      `insert into fragments (analysis_id, ordinal, name, kind, start_line, start_column, end_line, end_column, tokens, raw_hash, normalized_hash, set_id)
-       select * from unnest($1::int[], $2::int[], $3::text[], $4::text[], $5::int[], $6::int[], $7::int[], $8::int[], $9::int[], $10::text[], $11::text[], $12::int[])`,
+      `insert into fragments (analysis_id, ordinal, name, kind, start_line, start_column, end_line, end_column, tokens, token_start, token_end, raw_hash, normalized_hash, set_id)
+       select * from unnest($1::int[], $2::int[], $3::text[], $4::text[], $5::int[], $6::int[], $7::int[], $8::int[], $9::int[], $10::int[], $11::int[], $12::text[], $13::text[], $14::int[])`,
       columns.map((c) => c.slice(start, end)),
     );
   }
@@ -251,7 +250,7 @@ async function deriveClones(tx: Transaction, snapshotId: number, repository: Rep
   const instances = await snapshotInstances(tx, snapshotId);
   const pairs = await clonePairsWithin(tx, instances, t);
   const classes = cloneClasses(instances.length, pairs);
-  const tokens = clonedTokens(instances.map((x) => x.tokens), pairs);
+  const tokens = clonedTokens(instances.map((x) => ({ file: x.snapshotFileId, tokenStart: x.tokenStart, tokenEnd: x.tokenEnd })), pairs);
   const cloneRatio = tokens.total === 0 ? 0 : tokens.cloned / tokens.total;
   const cross = await clonePairsAcross(tx, repository.id, instances, t);
 

@@ -55,41 +55,70 @@ function checkFragment(i: number, count: number): void {
 
 /** Token counts behind a clone ratio, kept as integers so a budget can be compared exactly. */
 export interface ClonedTokens {
-  /** Tokens of fragments that lie in at least one clone pair. */
+  /** Source tokens inside at least one fragment that is in a clone pair, each counted once. */
   cloned: number;
-  /** Tokens of all fragments. */
+  /** Source tokens inside at least one fragment, each counted once. */
   total: number;
 }
 
-/**
- * Tokens in at least one clone pair and the total, each fragment counted once.
- *
- * @example clonedTokens([100, 50, 30], [{ a: 0, b: 2 }]) // { cloned: 130, total: 180 }
- */
-export function clonedTokens(tokens: ArrayLike<number>, pairs: readonly { a: number; b: number }[]): ClonedTokens {
-  const inPair = new Uint8Array(tokens.length);
-  for (const { a, b } of pairs) {
-    checkFragment(a, tokens.length);
-    checkFragment(b, tokens.length);
-    inPair[a] = inPair[b] = 1;
-  }
-  let cloned = 0;
-  let total = 0;
-  for (let i = 0; i < tokens.length; i++) {
-    total += tokens[i];
-    if (inPair[i]) cloned += tokens[i];
-  }
-  return { cloned, total };
+/** Where a fragment's tokens lie: its file (any key) and its [tokenStart, tokenEnd) range there. */
+export interface TokenSpan {
+  file: string | number;
+  tokenStart: number;
+  tokenEnd: number;
 }
 
 /**
- * Clone ratio: share of the fragments' tokens (sum of Fragment.tokens) that lie in at least one
- * clone pair; 0 when there are no tokens.
+ * Source tokens in at least one clone pair, and in any fragment, each token counted once by its
+ * position: a nested function's tokens also lie in the function around it, so summing fragment
+ * sizes would count them twice. The union of the ranges is taken per file.
  *
- * @example cloneRatio([100, 50, 30], [{ a: 0, b: 2 }]) // 130 / 180 ≈ 0.722
+ * @example
+ * // an outer function (tokens 0..100) holding a nested one (20..50), and a copy of the nested one elsewhere
+ * clonedTokens([{ file: 'a', tokenStart: 0, tokenEnd: 100 }, { file: 'a', tokenStart: 20, tokenEnd: 50 },
+ *   { file: 'b', tokenStart: 0, tokenEnd: 30 }], [{ a: 1, b: 2 }]) // { cloned: 60, total: 130 }
  */
-export function cloneRatio(tokens: ArrayLike<number>, pairs: readonly { a: number; b: number }[]): number {
-  const { cloned, total } = clonedTokens(tokens, pairs);
+export function clonedTokens(spans: readonly TokenSpan[], pairs: readonly { a: number; b: number }[]): ClonedTokens {
+  const inPair = new Uint8Array(spans.length);
+  for (const { a, b } of pairs) {
+    checkFragment(a, spans.length);
+    checkFragment(b, spans.length);
+    inPair[a] = inPair[b] = 1;
+  }
+  return {
+    cloned: coveredTokens(spans.filter((_, i) => inPair[i])),
+    total: coveredTokens(spans),
+  };
+}
+
+/** Size of the union of the spans' ranges, per file. */
+function coveredTokens(spans: readonly TokenSpan[]): number {
+  const sorted = [...spans].sort((x, y) =>
+    x.file < y.file ? -1 : x.file > y.file ? 1 : x.tokenStart - y.tokenStart,
+  );
+  let covered = 0;
+  let file: string | number | undefined;
+  let end = 0;
+  for (const span of sorted) {
+    if (span.file !== file) {
+      file = span.file;
+      end = -Infinity;
+    }
+    const start = Math.max(span.tokenStart, end);
+    if (span.tokenEnd > start) covered += span.tokenEnd - start;
+    end = Math.max(end, span.tokenEnd);
+  }
+  return covered;
+}
+
+/**
+ * Clone ratio: share of the source tokens inside fragments that lie in at least one clone pair
+ * (see clonedTokens); 0 when there are no tokens.
+ *
+ * @example cloneRatio([{ file: 'a', tokenStart: 0, tokenEnd: 60 }, { file: 'b', tokenStart: 0, tokenEnd: 60 }], [{ a: 0, b: 1 }]) // 1
+ */
+export function cloneRatio(spans: readonly TokenSpan[], pairs: readonly { a: number; b: number }[]): number {
+  const { cloned, total } = clonedTokens(spans, pairs);
   return total === 0 ? 0 : cloned / total;
 }
 

@@ -12,6 +12,8 @@ export class Fragment extends Model<InferAttributes<Fragment>, InferCreationAttr
   declare endLine: number;
   declare endColumn: number;
   declare tokens: number;
+  declare tokenStart: number;
+  declare tokenEnd: number;
   declare rawHash: string;
   declare normalizedHash: string;
   declare setId: number;
@@ -31,6 +33,8 @@ export function initFragment(sequelize: Sequelize) {
       endLine: { type: DataTypes.INTEGER, allowNull: false },
       endColumn: { type: DataTypes.INTEGER, allowNull: false },
       tokens: { type: DataTypes.INTEGER, allowNull: false },
+      tokenStart: { type: DataTypes.INTEGER, allowNull: false },
+      tokenEnd: { type: DataTypes.INTEGER, allowNull: false },
       rawHash: { type: DataTypes.TEXT, allowNull: false },
       normalizedHash: { type: DataTypes.TEXT, allowNull: false },
       setId: { type: DataTypes.INTEGER, allowNull: false },

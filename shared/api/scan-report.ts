@@ -32,9 +32,9 @@ export const scanStatsSchema = z.object({
   /** Files that failed to parse or were cut off by the time limit. */
   failedFiles: count,
   fragments: count,
-  /** Sum of Fragment.tokens over all fragments. */
+  /** Source tokens inside fragments, each counted once (a nested function's tokens lie in its outer one too). */
   tokens: count,
-  /** Tokens of fragments in at least one clone pair. */
+  /** Source tokens inside fragments that are in at least one clone pair, each counted once. */
   clonedTokens: count,
   cloneRatio: share,
   pairs: count,

@@ -4,10 +4,10 @@ import { scanReportSchema } from '../../../shared/api/scan-report';
 
 /** Four invented fragments: 0 and 2 identical, 2 and 3 renamed, 1 alone. */
 const FRAGMENTS: ReportFragmentInput[] = [
-  { file: 'src/quote.ts', name: 'quoteRate', startLine: 3, endLine: 20, tokens: 100, rawHash: 'r1', normalizedHash: 'n1' },
-  { file: 'src/other.ts', name: 'unrelated', startLine: 1, endLine: 9, tokens: 60, rawHash: 'r9', normalizedHash: 'n9' },
-  { file: 'src/copy, of "quote".ts', name: '=quoteRate', startLine: 5, endLine: 22, tokens: 100, rawHash: 'r1', normalizedHash: 'n1' },
-  { file: 'src/renamed.ts', name: 'priceLane', startLine: 10, endLine: 27, tokens: 40, rawHash: 'r3', normalizedHash: 'n1' },
+  { file: 'src/quote.ts', name: 'quoteRate', startLine: 3, endLine: 20, tokens: 100, tokenStart: 12, tokenEnd: 112, rawHash: 'r1', normalizedHash: 'n1' },
+  { file: 'src/other.ts', name: 'unrelated', startLine: 1, endLine: 9, tokens: 60, tokenStart: 0, tokenEnd: 60, rawHash: 'r9', normalizedHash: 'n9' },
+  { file: 'src/copy, of "quote".ts', name: '=quoteRate', startLine: 5, endLine: 22, tokens: 100, tokenStart: 30, tokenEnd: 130, rawHash: 'r1', normalizedHash: 'n1' },
+  { file: 'src/renamed.ts', name: 'priceLane', startLine: 10, endLine: 27, tokens: 40, tokenStart: 7, tokenEnd: 47, rawHash: 'r3', normalizedHash: 'n1' },
 ];
 const SETTINGS = { threshold: 0.8, minTokens: 50, shingleSize: 3 };
 

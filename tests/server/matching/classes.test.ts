@@ -65,30 +65,41 @@ describe('cloneClasses', () => {
 });
 
 describe('cloneRatio', () => {
+  /** Fragments side by side in one file, each `size` tokens long. */
+  const flat = (...sizes: number[]) => {
+    let at = 0;
+    return sizes.map((size) => ({ file: 'f', tokenStart: at, tokenEnd: (at += size) }));
+  };
+
   it('counts each cloned fragment once', () => {
-    expect(clonedTokens([100, 50, 30, 20], [{ a: 0, b: 2 }, { a: 2, b: 0 }, { a: 0, b: 3 }])).toEqual({ cloned: 150, total: 200 });
-    expect(cloneRatio([100, 50, 30, 20], [{ a: 0, b: 2 }, { a: 0, b: 3 }])).toBe(0.75);
+    expect(clonedTokens(flat(100, 50, 30, 20), [{ a: 0, b: 2 }, { a: 2, b: 0 }, { a: 0, b: 3 }])).toEqual({ cloned: 150, total: 200 });
+    expect(cloneRatio(flat(100, 50, 30, 20), [{ a: 0, b: 2 }, { a: 0, b: 3 }])).toBe(0.75);
+  });
+
+  it('counts the tokens of a nested function once, in the total and in the cloned share', () => {
+    const spans = [
+      { file: 'a.js', tokenStart: 0, tokenEnd: 100 }, // outer function
+      { file: 'a.js', tokenStart: 20, tokenEnd: 50 }, // its callback
+      { file: 'b.js', tokenStart: 10, tokenEnd: 40 }, // a copy of the callback elsewhere
+    ];
+    expect(clonedTokens(spans, [{ a: 1, b: 2 }])).toEqual({ cloned: 60, total: 130 });
+    expect(clonedTokens(spans, [{ a: 0, b: 2 }])).toEqual({ cloned: 130, total: 130 });
   });
 
   describe('edge cases', () => {
     it('is 0 with no tokens or no pairs, 1 when all are cloned', () => {
       expect(cloneRatio([], [])).toBe(0);
-      expect(cloneRatio([10, 10], [])).toBe(0);
-      expect(cloneRatio([10, 10], [{ a: 0, b: 1 }])).toBe(1);
+      expect(cloneRatio(flat(10, 10), [])).toBe(0);
+      expect(cloneRatio(flat(10, 10), [{ a: 0, b: 1 }])).toBe(1);
     });
-  });
-});
 
-describe('cloneType', () => {
-  it('is 1 for equal raw streams, 2 for equal normalised streams, 3 otherwise', () => {
-    expect(cloneType({ rawHash: 'r', normalizedHash: 'n' }, { rawHash: 'r', normalizedHash: 'n' })).toBe(1);
-    expect(cloneType({ rawHash: 'r', normalizedHash: 'n' }, { rawHash: 's', normalizedHash: 'n' })).toBe(2);
-    expect(cloneType({ rawHash: 'r', normalizedHash: 'n' }, { rawHash: 's', normalizedHash: 'm' })).toBe(3);
-  });
-
-  describe('edge cases', () => {
-    it('lets an equal raw hash decide even when normalised hashes differ', () => {
-      expect(cloneType({ rawHash: 'r', normalizedHash: 'n' }, { rawHash: 'r', normalizedHash: 'm' })).toBe(1);
+    it('keeps equal ranges of different files apart and merges overlapping ranges of one file', () => {
+      const spans = [
+        { file: 1, tokenStart: 0, tokenEnd: 10 },
+        { file: 2, tokenStart: 0, tokenEnd: 10 },
+        { file: 1, tokenStart: 5, tokenEnd: 15 },
+      ];
+      expect(clonedTokens(spans, [{ a: 0, b: 2 }])).toEqual({ cloned: 15, total: 25 });
     });
   });
 });
