@@ -1,4 +1,5 @@
 import { bruteJoinAgainst, bruteSelfJoin } from './brute';
+import { overlapFrom, packBySize } from './packed';
 import { minOverlap, overlapAtLeast, prefixLength, reaches, sizeBounds, type Threshold } from './threshold';
 import type { Algorithm, JoinOptions, JoinProfile, JoinStats, SetPair } from './types';
 
@@ -239,11 +240,36 @@ function newCandidates(size: number): Candidates {
 }
 
 /**
- * Self-join in size order (AllPairs/PPJoin style). Sets are indexed with the short indexing
- * prefix |y| − α(y, y) + 1: it is enough because every later partner x has |x| ≥ |y|, so the
- * required overlap α(x, y) ≥ α(y, y). The probe uses the full probing prefix of x. The list
- * entries of sets not yet processed sit at the end of each list (appended in size order), so the
- * scan stops at the first one.
+ * Self-join in size order (AllPairs/PPJoin style) over the packed sets.
+ *
+ * Indexing prefix. Set y is indexed with the short prefix |y| − α(y, y) + 1 (α(y, y) =
+ * ⌈2t/(1+t)·|y|⌉), not the probing prefix |y| − ⌈t·|y|⌉ + 1. Why that is enough: sets are
+ * processed in non-decreasing size and each set x probes only the sets before it, so every
+ * partner y of x has |y| ≤ |x| and the pair needs α(x, y) ≥ α(y, y) shared ids (α grows with
+ * either size). If x and y reach t they share ≥ α(x, y) ids; the ids of y after its first
+ * |y| − α(x, y) + 1 ≤ |y| − α(y, y) + 1 positions number at most α(x, y) − 1, so at least one
+ * shared id lies in y's short prefix, and (by the same count with |x| − ⌈t|x|⌉ + 1 ≥
+ * |x| − α(x, y) + 1, since α(x, y) ≥ ⌈t·|x|⌉ for |y| ≥ ⌈t·|x|⌉) the first shared id of the pair
+ * lies in both prefixes. Only valid for this order: a set indexed before a larger partner
+ * probes it would be missed, hence joinAgainst indexes the full probing prefix.
+ *
+ * The index is built up front; its lists hold sets in processing order, so "indexed before x"
+ * is "entry's set number < k", and the scan of a list stops at the first later set.
+ *
+ * Probe of x, at each prefix position i:
+ * - length filter: sizes only grow along the processing order, so each list's too-small head
+ *   (|y| < ⌈t·|x|⌉) is skipped once and for all by moving its start;
+ * - position filter (DESIGN.md): on a shared id at positions i in x and j in y, with c shared ids
+ *   counted before it, the overlap is at most c + 1 + min(|x| − i − 1, |y| − j − 1); below
+ *   α(x, y) the pair is dropped for good (count −1). c counts every id x and y share before
+ *   positions i and j: those of x precede i in x's probe prefix and those of y precede j, inside
+ *   y's indexed prefix, so the probe met them all;
+ * - size cut: a pair first met at position i has c = 0, so it survives only if |x| − i ≥ α(x, y);
+ *   α grows with |y| and the list ascends in size, so the walk stops at the first size past
+ *   that bound. Entries cut off this way that belong to pairs already counted are not updated;
+ *   their verification then resumes from the last update, which is still exact (overlapFrom).
+ * Verification (every surviving pair) resumes the merge just after the last shared id the probe
+ * saw, with the overlap counted so far.
  */
 function selfJoinByPrefix(
   sets: readonly Int32Array[],
@@ -253,28 +279,35 @@ function selfJoinByPrefix(
   profile?: JoinProfile,
 ): SetPair[] {
   let clock = profile ? performance.now() : 0;
-  const order = bySize(sets);
+  const { data, start, order } = packBySize(sets);
+  const count = order.length;
   let vocabulary = 0;
-  for (const set of sets) if (set.length > 0 && set[set.length - 1] + 1 > vocabulary) vocabulary = set[set.length - 1] + 1;
-  const { listStart, entries } = buildPrefixIndex(sets, order, (size) => size - minOverlap(t, size, size) + 1, vocabulary);
-  // Sizes only grow along the processing order, so the lower size bound does too: each list's
-  // too-small head is skipped once and for all by moving its start.
+  for (let m = 0; m < count; m++) if (data[start[m + 1] - 1] + 1 > vocabulary) vocabulary = data[start[m + 1] - 1] + 1;
+  const { listStart, entries } = buildPackedIndex(data, start, (size) => size - minOverlap(t, size, size) + 1, vocabulary);
   const listHead = listStart.slice(0, vocabulary);
-  const { count, lastX, lastY, touched } = newCandidates(order.length);
+  const candidate = newCandidates(count);
+  const counts = candidate.count;
+  const { lastX, lastY, touched } = candidate;
+  // α(x, y) for the sizes of y in x's length window, indexed by |y| − lower; refilled per x.
+  let required = new Int32Array(64);
   if (profile) clock = lap(profile, 'indexMs', clock);
   const pairs: SetPair[] = [];
   let candidates = 0;
   let verified = 0;
 
-  for (let k = 0; k < order.length; k++) {
-    const x = sets[order[k]];
-    const sizeX = x.length;
+  for (let k = 0; k < count; k++) {
+    const x0 = start[k];
+    const sizeX = start[k + 1] - x0;
     const lower = sizeBounds(t, sizeX)[0];
+    if (sizeX - lower + 1 > required.length) required = new Int32Array(2 * (sizeX - lower + 1));
+    for (let size = lower; size <= sizeX; size++) required[size - lower] = minOverlap(t, sizeX, size);
     const probe = prefixLength(t, sizeX);
+    // Largest |y| a pair first met at the current position may have (size cut, see above).
+    let newUpTo = sizeX;
     let touchedCount = 0;
     for (let i = 0; i < probe; i++) {
-      const w = x[i];
-      if (w >= vocabulary) continue;
+      const w = data[x0 + i];
+      if (usePosition) while (newUpTo >= lower && required[newUpTo - lower] > sizeX - i) newUpTo--;
       const end = 3 * listStart[w + 1];
       let e = 3 * listHead[w];
       while (e < end && entries[e + SIZE] < lower) e += 3;
@@ -282,20 +315,22 @@ function selfJoinByPrefix(
       for (; e < end; e += 3) {
         const y = entries[e + SET];
         if (y >= k) break;
-        const c = count[y];
+        const sizeY = entries[e + SIZE];
+        if (usePosition && sizeY > newUpTo) break;
+        const c = counts[y];
         if (c < 0) continue;
-        if (c === 0) touched[touchedCount++] = y;
         const j = entries[e + POSITION];
         if (usePosition) {
-          const sizeY = entries[e + SIZE];
           const restX = sizeX - i - 1;
           const restY = sizeY - j - 1;
-          if (c + 1 + (restX < restY ? restX : restY) < minOverlap(t, sizeX, sizeY)) {
-            count[y] = -1;
+          if (c + 1 + (restX < restY ? restX : restY) < required[sizeY - lower]) {
+            if (c === 0) touched[touchedCount++] = y;
+            counts[y] = -1;
             continue;
           }
         }
-        count[y] = c + 1;
+        if (c === 0) touched[touchedCount++] = y;
+        counts[y] = c + 1;
         lastX[y] = i;
         lastY[y] = j;
       }
@@ -304,13 +339,14 @@ function selfJoinByPrefix(
     if (profile) clock = lap(profile, 'probeMs', clock);
     for (let n = 0; n < touchedCount; n++) {
       const m = touched[n];
-      const c = count[m];
-      count[m] = 0;
+      const c = counts[m];
+      counts[m] = 0;
       if (c < 0) continue;
       verified++;
-      const y = sets[order[m]];
-      const overlap = overlapAtLeast(x, y, minOverlap(t, sizeX, y.length), lastX[m] + 1, lastY[m] + 1, c);
-      if (overlap >= 0 && reaches(t, sizeX, y.length, overlap)) pairs.push(selfPair(order[k], order[m], overlap));
+      const y0 = start[m];
+      const sizeY = start[m + 1] - y0;
+      const overlap = overlapFrom(data, x0, x0 + sizeX, y0, y0 + sizeY, x0 + lastX[m] + 1, y0 + lastY[m] + 1, c, required[sizeY - lower]);
+      if (overlap >= 0 && reaches(t, sizeX, sizeY, overlap)) pairs.push(selfPair(order[k], order[m], overlap));
     }
     if (profile) clock = lap(profile, 'verifyMs', clock);
   }
@@ -319,6 +355,39 @@ function selfJoinByPrefix(
     stats.verified += verified;
   }
   return pairs;
+}
+
+/**
+ * buildPrefixIndex over packed sets: set m (in packing order) indexes its first prefixOf(|m|) ids.
+ */
+function buildPackedIndex(
+  data: Int32Array,
+  start: Int32Array,
+  prefixOf: (size: number) => number,
+  vocabulary: number,
+): PrefixIndex {
+  const count = start.length - 1;
+  const listStart = new Int32Array(vocabulary + 1);
+  let total = 0;
+  for (let m = 0; m < count; m++) {
+    const prefix = prefixOf(start[m + 1] - start[m]);
+    total += prefix;
+    for (let i = 0; i < prefix; i++) listStart[data[start[m] + i] + 1]++;
+  }
+  for (let w = 1; w <= vocabulary; w++) listStart[w] += listStart[w - 1];
+  const fill = listStart.slice(0, vocabulary);
+  const entries = new Int32Array(total * 3);
+  for (let m = 0; m < count; m++) {
+    const size = start[m + 1] - start[m];
+    const prefix = prefixOf(size);
+    for (let i = 0; i < prefix; i++) {
+      const e = 3 * fill[data[start[m] + i]]++;
+      entries[e + SIZE] = size;
+      entries[e + SET] = m;
+      entries[e + POSITION] = i;
+    }
+  }
+  return { listStart, entries };
 }
 
 /** Adds the time since `since` to one phase and returns the new clock. */
