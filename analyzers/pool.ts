@@ -21,6 +21,17 @@ export const DEFAULT_TIMEOUT_MS = 20_000;
 const WORKER_URL = new URL('./worker.mjs', import.meta.url);
 
 /**
+ * V8 heap limits of a pool thread. The young generation is larger than V8's default (about 48 MB,
+ * 16 MB semi-spaces): a parse allocates a whole syntax tree and token list that live until the
+ * file is done, and with small semi-spaces most of it is copied by several scavenges before it
+ * dies. 192 MB (64 MB semi-spaces) measured about a tenth faster on the bench corpus; the space is
+ * only taken when a file needs it.
+ *
+ * @example new Worker(url, { resourceLimits: POOL_RESOURCE_LIMITS })
+ */
+export const POOL_RESOURCE_LIMITS = { maxOldGenerationSizeMb: 2048, maxYoungGenerationSizeMb: 192 } as const;
+
+/**
  * Analyses many files in a pool of worker threads (one per core by default). Results come back
  * in input order; skipped files (ignore rules, size, binary, encoding, unknown language) are left
  * out of `files` and listed in `skipped` with their reason. A file that fails to parse, runs out
@@ -63,7 +74,7 @@ export async function analyzeFiles(
     // Each file is its own task with its own abort signal: abortable tasks never share a thread.
     concurrentTasksPerWorker: 1,
     idleTimeout: 1_000,
-    resourceLimits: { maxOldGenerationSizeMb: 2048 },
+    resourceLimits: POOL_RESOURCE_LIMITS,
   });
   try {
     // Load the analyzers in every thread first, so that a file's time limit measures its own
