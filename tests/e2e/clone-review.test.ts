@@ -1,50 +1,20 @@
-import fs from 'node:fs';
-import type { Server } from 'node:http';
-import type { AddressInfo } from 'node:net';
-import os from 'node:os';
 import path from 'node:path';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createApp } from '../../server/app';
-import { projectRoot } from '../../server/config';
 import type { LoadSnapshotResult } from '../../server/commands/loadSnapshot';
 import type { Repository } from '../../server/models/Repository';
 import type { User } from '../../server/models/User';
-import { RELEASES, TEST_PASSWORD, buildRepository, buildTeam, loadFolder, useDatabase } from '../support';
+import { PASTED_PRICING_RULE, RELEASES, buildRepository, buildTeam, loadFolder, useDatabase } from '../support';
+import { SCREENSHOTS, signInThroughForm, startBrowserSession, type BrowserSession } from './browser';
 
 useDatabase();
 
-/**
- * A copy of the demo's pricing rule with every name changed, as an engineer who found a bug in it
- * would paste it (the same invented snippet as tests/server/routes/find-copies.test.ts).
- */
-const PASTED = `function costOfTrain(units, km, deal) {
-  let acc = 0;
-  for (const u of units) {
-    const base = u.loadTonnes * deal.ratePerTonne + u.axles * 3;
-    const hazard = u.hazardous ? base * 0.15 : 0;
-    acc += (base + hazard) * Math.max(1, km / 100);
-  }
-  if (deal.discount > 0) {
-    acc = acc - acc * deal.discount;
-  }
-  return Math.round(acc * 100) / 100;
-}`;
-
-const screenshots = path.join(projectRoot, 'test-results', 'screenshots');
-
-let server: Server;
-let baseUrl: string;
-let context: BrowserContext;
-let profileDir: string;
+let session: BrowserSession;
 let team: Awaited<ReturnType<typeof buildTeam>>;
 let repository: Repository;
 let loads: Record<'v1' | 'v2' | 'v3', LoadSnapshotResult>;
 
 beforeAll(async () => {
-  if (!fs.existsSync(path.join(projectRoot, 'dist', 'web', 'index.html'))) {
-    throw new Error('dist/web is missing: run the tests with `npm test`, which builds the client first');
-  }
   team = await buildTeam();
   repository = await buildRepository({ organisationId: team.organisation.id, name: 'freight-platform', description: 'Brackenfold consignment pricing and yard tools' });
   loads = {
@@ -56,42 +26,22 @@ beforeAll(async () => {
   const ratios = Object.values(loads).map((l) => l.cloneRatio);
   await repository.update({ cloneBudget: (Math.round(((Math.min(...ratios) + Math.max(...ratios)) / 2) * 1000) / 1000).toFixed(3) });
 
-  server = await new Promise<Server>((resolve) => {
-    const s = createApp().listen(0, '127.0.0.1', () => resolve(s));
-  });
-  baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-  fs.mkdirSync(screenshots, { recursive: true });
-  profileDir = fs.mkdtempSync(path.join(os.tmpdir(), 'chromium-profile-'));
-  context = await chromium.launchPersistentContext(profileDir, {
-    executablePath: '/usr/bin/chromium',
-    headless: true,
-    viewport: { width: 1440, height: 900 },
-    args: [
-      '--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
-      '--disable-background-networking', '--disable-component-update', '--disable-sync',
-    ],
-  });
+  session = await startBrowserSession({ width: 1440, height: 900 });
 }, 180_000);
 
 afterAll(async () => {
-  await context?.close();
-  if (profileDir) fs.rmSync(profileDir, { recursive: true, force: true });
-  await new Promise<void>((resolve) => (server ? server.close(() => resolve()) : resolve()));
+  await session?.close();
 });
 
 async function signIn(page: Page, user: User) {
-  // One browser profile serves both tests: start each without the previous user's session.
-  await context.clearCookies();
-  await page.goto(`${baseUrl}/sign-in`, { waitUntil: 'networkidle' });
-  await page.getByLabel('E-mail').fill(user.email);
-  await page.getByLabel('Password').fill(TEST_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.getByRole('navigation', { name: 'Main' }).waitFor();
+  // One browser profile serves every test: start each without the previous user's session.
+  await session.context.clearCookies();
+  await signInThroughForm(page, session.baseUrl, user);
 }
 
 /** A page that records console errors (401s before sign-in aside). */
 async function openPage(): Promise<{ page: Page; consoleErrors: string[] }> {
-  const page = await context.newPage();
+  const page = await session.context.newPage();
   const consoleErrors: string[] = [];
   page.on('console', (m) => {
     if (m.type() === 'error' && !/401|Unauthorized/.test(m.text())) consoleErrors.push(m.text());
@@ -110,7 +60,7 @@ describe('reviewing clones with Chromium', () => {
       await expect.poll(() => highest.textContent()).toContain(v3Percent);
       await expect.poll(() => page.getByRole('group', { name: 'Repositories' }).textContent()).toMatch(/^Repositories1/);
       await page.locator('figure[aria-label="Clone ratio by release"] .recharts-line-dot').first().waitFor();
-      await page.screenshot({ path: path.join(screenshots, 'review-overview.png'), fullPage: true });
+      await page.screenshot({ path: path.join(SCREENSHOTS, 'review-overview.png'), fullPage: true });
 
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Repositories' }).click();
       const row = page.getByRole('row', { name: /freight-platform/ });
@@ -119,7 +69,7 @@ describe('reviewing clones with Chromium', () => {
       // The budget lies between the releases' ratios; "over budget" shows exactly when v3 is above it.
       const overBudget = loads.v3.cloneRatio > Number(repository.cloneBudget);
       expect(await row.getByText('over budget').count()).toBe(overBudget ? 1 : 0);
-      await page.screenshot({ path: path.join(screenshots, 'review-repositories.png'), fullPage: true });
+      await page.screenshot({ path: path.join(SCREENSHOTS, 'review-repositories.png'), fullPage: true });
 
       await row.getByRole('link', { name: 'freight-platform' }).click();
       await page.getByRole('heading', { name: 'freight-platform' }).waitFor();
@@ -133,7 +83,7 @@ describe('reviewing clones with Chromium', () => {
       expect(await page.getByRole('button', { name: 'Save settings' }).count()).toBe(0);
       const snapshots = page.getByRole('table', { name: 'Snapshots' });
       expect(await snapshots.locator('tbody tr td:first-child').allTextContents()).toEqual(['v3', 'v2', 'v1']);
-      await page.screenshot({ path: path.join(screenshots, 'review-repository.png'), fullPage: true });
+      await page.screenshot({ path: path.join(SCREENSHOTS, 'review-repository.png'), fullPage: true });
 
       await snapshots.getByRole('link', { name: 'v2', exact: true }).click();
       await page.getByRole('heading', { name: 'Snapshot v2' }).waitFor();
@@ -143,7 +93,7 @@ describe('reviewing clones with Chromium', () => {
       const classRows = page.getByRole('table', { name: 'Clone classes' }).locator('tbody tr');
       await expect.poll(() => classRows.count()).toBe(1);
       await expect(classRows.first().textContent()).resolves.toMatch(/drifted.*billing\/tariff\.js.*yard\/shunting\.js/);
-      await page.screenshot({ path: path.join(screenshots, 'review-snapshot-v2-drifted.png'), fullPage: true });
+      await page.screenshot({ path: path.join(SCREENSHOTS, 'review-snapshot-v2-drifted.png'), fullPage: true });
 
       // The filter lives in the URL: a reload keeps it.
       await page.reload({ waitUntil: 'networkidle' });
@@ -171,10 +121,10 @@ describe('reviewing clones with Chromium', () => {
       const family = await page.getByRole('region', { name: /Code of priceConsignment/ }).locator('pre').evaluate((el) => getComputedStyle(el).fontFamily);
       expect(family).toContain('IBM Plex Mono');
       await expect(page.getByRole('status', { name: 'Pair shown' }).textContent()).resolves.toMatch(/similarity 0\.\d{3}|similarity 1\.000/);
-      await page.screenshot({ path: path.join(screenshots, 'review-clone-class.png'), fullPage: true });
+      await page.screenshot({ path: path.join(SCREENSHOTS, 'review-clone-class.png'), fullPage: true });
 
       // v3 adds a third copy (billing/quotes.js): the class grew, and a chooser picks which two to compare.
-      await page.goto(`${baseUrl}/snapshots/${loads.v3.snapshotId}?status=grown`, { waitUntil: 'networkidle' });
+      await page.goto(`${session.baseUrl}/snapshots/${loads.v3.snapshotId}?status=grown`, { waitUntil: 'networkidle' });
       await expect.poll(() => classRows.count()).toBe(1);
       await classRows.first().getByRole('link', { name: /^Open clone class/ }).click();
       const chooseRight = page.getByLabel('Right', { exact: true });
@@ -186,7 +136,7 @@ describe('reviewing clones with Chromium', () => {
       await expect.poll(() => left.getAttribute('aria-label')).toBe('Left: billing/tariff.js');
       await expect.poll(() => right.getAttribute('aria-label')).toBe('Right: billing/quotes.js');
       await expect(page.getByRole('region', { name: /Code of quoteForCustomer/ }).textContent()).resolves.toContain('quoteForCustomer(units, kilometres, terms)');
-      await page.screenshot({ path: path.join(screenshots, 'review-clone-class-three.png'), fullPage: true });
+      await page.screenshot({ path: path.join(SCREENSHOTS, 'review-clone-class-three.png'), fullPage: true });
       expect(consoleErrors).toEqual([]);
     } finally {
       await page.close();
@@ -203,7 +153,7 @@ describe('reviewing clones with Chromium', () => {
       await page.getByRole('button', { name: 'Find copies' }).click();
       await page.getByText('Paste some code.').waitFor();
 
-      await page.getByLabel('Code', { exact: true }).fill(PASTED);
+      await page.getByLabel('Code', { exact: true }).fill(PASTED_PRICING_RULE);
       await page.getByRole('button', { name: 'Find copies' }).click();
       const table = page.getByRole('table', { name: 'Copies found' });
       await table.waitFor();
@@ -218,7 +168,7 @@ describe('reviewing clones with Chromium', () => {
         'billing/tariff.js priceConsignment',
         'yard/shunting.js quoteYardMove',
       ]);
-      await page.screenshot({ path: path.join(screenshots, 'review-find-copies.png'), fullPage: true });
+      await page.screenshot({ path: path.join(SCREENSHOTS, 'review-find-copies.png'), fullPage: true });
       expect(consoleErrors).toEqual([]);
     } finally {
       await page.close();
@@ -241,7 +191,7 @@ describe('reviewing clones with Chromium', () => {
       await page.getByRole('heading', { name: 'depot-tools' }).waitFor();
       await page.getByText('No snapshots yet.').waitFor();
 
-      await page.goto(`${baseUrl}/repositories/${repository.id}`, { waitUntil: 'networkidle' });
+      await page.goto(`${session.baseUrl}/repositories/${repository.id}`, { waitUntil: 'networkidle' });
       await page.getByRole('heading', { name: 'freight-platform' }).waitFor();
       // A budget just under the latest release's ratio puts the repository over it.
       const budget = Math.floor(loads.v3.cloneRatio * 100 - 2) / 100;
@@ -257,7 +207,7 @@ describe('reviewing clones with Chromium', () => {
       // What the server kept: blank lines dropped, patterns trimmed.
       await page.reload({ waitUntil: 'networkidle' });
       expect(await page.getByRole('region', { name: 'Settings' }).getByLabel('Ignore').inputValue()).toBe('vendor/\n**/*.generated.js');
-      await page.screenshot({ path: path.join(screenshots, 'review-repository-lead.png'), fullPage: true });
+      await page.screenshot({ path: path.join(SCREENSHOTS, 'review-repository-lead.png'), fullPage: true });
 
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Repositories' }).click();
       await page.getByRole('row', { name: /freight-platform/ }).getByText('over budget').waitFor();

@@ -3,3 +3,4 @@ export { useDatabase } from './database';
 export { TEST_PASSWORD, buildOrganisation, buildTeam, buildUser, uniqueEmail, type BuildUserOptions } from './factories';
 export { anonymousAgent, signedInAgent, type Agent } from './agents';
 export { buildRepository, describedPairs, loadFolder, RELEASES } from './snapshots';
+export { PASTED_PRICING_RULE } from './snippets';

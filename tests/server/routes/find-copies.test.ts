@@ -2,7 +2,7 @@ import type { Express } from 'express';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../../server/app';
 import type { FindCopiesResultDTO } from '../../../shared/api/find-copies';
-import { buildRepository, buildTeam, loadFolder, RELEASES, signedInAgent, useDatabase } from '../../support';
+import { PASTED_PRICING_RULE, buildRepository, buildTeam, loadFolder, RELEASES, signedInAgent, useDatabase } from '../../support';
 
 useDatabase();
 
@@ -11,19 +11,6 @@ beforeAll(() => {
   app = createApp();
 });
 
-// A planted copy of the pricing rule, renamed, as an engineer would paste it.
-const PASTED = `function costOfTrain(units, km, deal) {
-  let acc = 0;
-  for (const u of units) {
-    const base = u.loadTonnes * deal.ratePerTonne + u.axles * 3;
-    const hazard = u.hazardous ? base * 0.15 : 0;
-    acc += (base + hazard) * Math.max(1, km / 100);
-  }
-  if (deal.discount > 0) {
-    acc = acc - acc * deal.discount;
-  }
-  return Math.round(acc * 100) / 100;
-}`;
 
 describe('POST /api/find-copies', () => {
   it('finds every copy of a pasted function in the latest snapshots of the organisation, nothing below the threshold', async () => {
@@ -33,7 +20,7 @@ describe('POST /api/find-copies', () => {
     const elsewhere = await buildRepository();
     await loadFolder(elsewhere, `${RELEASES}/v1`, 'v1');
     const engineer = await signedInAgent(app, team.engineer);
-    const res = (await engineer.post('/api/find-copies').send({ language: 'javascript', text: PASTED, threshold: 0.9 }).expect(200)).body as FindCopiesResultDTO;
+    const res = (await engineer.post('/api/find-copies').send({ language: 'javascript', text: PASTED_PRICING_RULE, threshold: 0.9 }).expect(200)).body as FindCopiesResultDTO;
     expect(res.copies.map((c) => `${c.path}:${c.name}`).sort()).toEqual(['billing/tariff.js:priceConsignment', 'yard/shunting.js:quoteYardMove']);
     expect(res.copies.every((c) => c.repositoryId === repository.id && c.similarity >= 0.9)).toBe(true);
     const unrelated = (await engineer.post('/api/find-copies').send({ language: 'javascript', text: 'function f(a) { return a.map((x) => x * 2).filter(Boolean); }' }).expect(200)).body as FindCopiesResultDTO;
