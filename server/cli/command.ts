@@ -61,3 +61,16 @@ export async function guarded(io: CommandIo, usage: string, body: () => Promise<
 export function elapsed(start: number): number {
   return Math.round(performance.now() - start);
 }
+
+/**
+ * A positive integer option, or undefined when it was not given.
+ *
+ * @example positiveIntegerOption('50', '--min-tokens') // 50
+ * @throws UsageError naming the option when the value is not a positive integer
+ */
+export function positiveIntegerOption(value: string | undefined, option: string): number | undefined {
+  if (value === undefined) return undefined;
+  const n = Number(value);
+  if (!/^\d+$/.test(value) || !Number.isSafeInteger(n) || n < 1) throw new UsageError(`${option} must be a positive integer (got "${value}")`);
+  return n;
+}

@@ -7,7 +7,7 @@ import { loadSnapshot } from '../commands/loadSnapshot';
 import { disconnect } from '../db';
 import { HttpError } from '../errors';
 import { Repository } from '../models';
-import { guarded, InputError, processIo, UsageError, type CommandIo } from './command';
+import { guarded, InputError, positiveIntegerOption, processIo, UsageError, type CommandIo } from './command';
 import { openCliDatabase, resolveOrganisation } from './database';
 
 const USAGE = `usage: doublet import --repository NAME --label LABEL [--min-tokens N] [--threshold T] [--shingle K]
@@ -17,13 +17,6 @@ Loads the folder PATH as a snapshot of repository NAME (created when it does not
 release label LABEL, and prints the snapshot id, counts and timings. Settings given here are
 saved on the repository. The local PostgreSQL is started when it is not running.
 `;
-
-const positiveInt = (value: string | undefined, option: string) => {
-  if (value === undefined) return undefined;
-  const n = Number(value);
-  if (!Number.isInteger(n) || n <= 0) throw new UsageError(`${option} must be a positive integer (got "${value}")`);
-  return n;
-};
 
 /** `doublet import`: a local folder → a snapshot in the database. */
 export function run(args: string[], io: CommandIo = processIo()): Promise<number> {
@@ -53,8 +46,8 @@ export function run(args: string[], io: CommandIo = processIo()): Promise<number
     const info = await stat(root).catch(() => undefined);
     if (!info?.isDirectory()) throw new InputError(`${positionals[0]} is not a folder`);
     const settings = {
-      minTokens: positiveInt(values['min-tokens'], '--min-tokens'),
-      shingleSize: positiveInt(values.shingle, '--shingle'),
+      minTokens: positiveIntegerOption(values['min-tokens'], '--min-tokens'),
+      shingleSize: positiveIntegerOption(values.shingle, '--shingle'),
       threshold: values.threshold === undefined ? undefined : Number(values.threshold),
     };
     const given = Object.fromEntries(Object.entries(settings).filter(([, v]) => v !== undefined));
@@ -79,7 +72,7 @@ export function run(args: string[], io: CommandIo = processIo()): Promise<number
         source: 'folder',
         files: folder.files,
         skipped: folder.skipped,
-        batchSize: positiveInt(values['batch-size'], '--batch-size'),
+        batchSize: positiveIntegerOption(values['batch-size'], '--batch-size'),
       }).catch((error: unknown) => {
         if (error instanceof HttpError) throw new InputError(error.message);
         throw error;

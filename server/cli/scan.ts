@@ -8,7 +8,7 @@ import { readFolder } from '../ingest/folder';
 import { jaccard, newJoinStats, selfJoin } from '../matching/join';
 import { rankShingles } from '../matching/order';
 import { thresholdValue } from '../matching/threshold';
-import { elapsed, guarded, InputError, processIo, UsageError, type CommandIo } from './command';
+import { elapsed, guarded, InputError, positiveIntegerOption, processIo, UsageError, type CommandIo } from './command';
 import { thresholdOption } from './join';
 import { buildReport, overBudget, parseBudget, REPORT_FORMATS, writeReport, type ReportFormat, type ReportFragmentInput } from './report';
 
@@ -69,13 +69,6 @@ class Progress {
   }
 }
 
-function positiveInteger(value: string | undefined, option: string, fallback: number): number {
-  if (value === undefined) return fallback;
-  const n = Number(value);
-  if (!/^\d+$/.test(value) || !Number.isSafeInteger(n) || n < 1) throw new UsageError(`${option} must be a positive integer (got "${value}")`);
-  return n;
-}
-
 /** Labels for several roots: each folder's base name, made unique with ~2, ~3… when two repeat. */
 function rootLabels(roots: string[]): string[] {
   if (roots.length === 1) return [''];
@@ -120,8 +113,8 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
     }
     if (positionals.length === 0) throw new UsageError('give at least one folder to scan');
     const t = thresholdOption(values.threshold);
-    const minTokens = positiveInteger(values['min-tokens'], '--min-tokens', 50);
-    const shingleSize = positiveInteger(values.shingle, '--shingle', 3);
+    const minTokens = positiveIntegerOption(values['min-tokens'], '--min-tokens') ?? 50;
+    const shingleSize = positiveIntegerOption(values.shingle, '--shingle') ?? 3;
     const format = (values.format ?? 'text') as ReportFormat;
     if (!REPORT_FORMATS.includes(format)) throw new UsageError(`--format must be one of ${REPORT_FORMATS.join(', ')} (got "${values.format}")`);
     let budget;
