@@ -93,7 +93,14 @@ export async function ensureDatabaseServer(databaseName = loadConfig().databaseN
   if (!isRunning(binDir, config.pgDataDir)) {
     const start = runPg(path.join(binDir, 'pg_ctl'), [
       '-D', config.pgDataDir, '-l', path.join(config.pgDataDir, 'server.log'), '-w', '-t', '60',
-      '-o', `-h 127.0.0.1 -p ${config.pgPort} -k ${config.pgDataDir}`, 'start',
+      // Sized for the prefix index on a development machine: a 1M-set index (~2 GB of prefix rows and
+      // their index) keeps its hot pages in shared buffers; no parallel workers or JIT for the many
+      // short index-lookup queries; WAL roomy enough that a bulk load does not force checkpoints.
+      '-o', [
+        `-h 127.0.0.1 -p ${config.pgPort} -k ${config.pgDataDir}`,
+        '-c shared_buffers=1GB -c work_mem=32MB -c jit=off -c max_parallel_workers_per_gather=0',
+        '-c max_wal_size=4GB -c checkpoint_timeout=15min',
+      ].join(' '), 'start',
     ]);
     if (!start.ok && !isRunning(binDir, config.pgDataDir)) {
       throw new Error(
