@@ -219,6 +219,8 @@ async function loadRange(collection: Collection, from: number, to: number, deadl
 
 interface ProbeFigures {
   newSets: number;
+  /** addSets' breakdown: dictionary, prefixes (store side), hits, load, verify (probe side) */
+  parts: Record<string, number>;
   storeMs: number;
   probeMs: number;
   pairs: number;
@@ -233,6 +235,13 @@ async function probeBatch(collection: Collection, indexed: number, salt: number)
     const result = await addSets(tx, sets, { batchSize: PROBE_BATCH });
     return {
       newSets: result.newSetCount,
+      parts: {
+        dictionary: result.timings.dictionary,
+        prefixes: result.timings.prefixes,
+        hits: result.timings.hits,
+        load: result.timings.load,
+        verify: result.timings.verify,
+      },
       storeMs: result.timings.store,
       probeMs: result.timings.probe,
       pairs: result.newPairCount,
@@ -365,7 +374,7 @@ function report(stages: Stage[], meta: { seed: number; queries: number; peakRssM
     out.push(
       `At ${formatCount(s.indexed)}: stage stored ${formatCount(s.load.newSets)} new sets (the rest were exact copies), ` +
         `${formatCount(s.load.candidates)} candidates verified, ${formatCount(s.load.pairs)} pairs found; ` +
-        `the 10k batch: store ${formatMs(s.probe.storeMs)}, probe ${formatMs(s.probe.probeMs)}, ${formatCount(s.probe.candidates)} candidates, ${formatCount(s.probe.pairs)} pairs; ` +
+        `the 10k batch: store ${formatMs(s.probe.storeMs)}, probe ${formatMs(s.probe.probeMs)} (${Object.entries(s.probe.parts).map(([k, v]) => `${k} ${formatMs(v)}`).join(', ')}), ${formatCount(s.probe.candidates)} candidates, ${formatCount(s.probe.pairs)} pairs; ` +
         `find copies: ${meta.queries} near-copy queries found ${formatCount(s.find.near.found)} sets (max ${formatMs(s.find.near.max)}), ` +
         `${meta.queries} fresh found ${formatCount(s.find.fresh.found)} (max ${formatMs(s.find.fresh.max)}).`,
     );

@@ -53,6 +53,23 @@ export function probeHitFilter(t: Threshold, probe = 'p', entry = 'e'): string {
 }
 
 /**
+ * The partner sizes a probe key p(pos, sz) can pair with, as SQL bounds for the index condition on
+ * prefix_entries (rank, size): from ⌈t·sz⌉ (the length filter) to the largest size whose hit still
+ * passes the probe side of probeHitFilter. That side, sz − pos ≥ α = ⌈p(sz+size)/(p+q)⌉, holds iff
+ * (p+q)(sz − pos) ≥ p·sz + p·size (the left side is an integer), i.e. iff
+ * size ≤ ⌊(q·sz − (p+q)·pos) / p⌋, which is never above the length filter's ⌊q·sz/p⌋ and shrinks as
+ * the key lies further in: the index then reads only the entries that side keeps, instead of
+ * reading them all and filtering. (When the numerator is negative SQL division truncates to 0 or
+ * less, and no stored size is below 1, so nothing is read, as it should be.)
+ *
+ * @example probeSizeBounds({ p: 3, q: 5 }) // ['(3::bigint * p.sz + 4) / 5', '(5::bigint * p.sz - 8::bigint * p.pos) / 3']
+ */
+export function probeSizeBounds(t: Threshold, probe = 'p'): [string, string] {
+  const { p, q } = t;
+  return [`(${p}::bigint * ${probe}.sz + ${q - 1}) / ${q}`, `(${q}::bigint * ${probe}.sz - ${p + q}::bigint * ${probe}.pos) / ${p}`];
+}
+
+/**
  * Verifies candidates by merging the sorted rank arrays, with early exit. Returns only the pairs
  * that reach the threshold, with their exact overlap.
  */

@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import { INDEX_MIN_THRESHOLD } from '../../shared/constants';
 import { parseThreshold, prefixLength, type Threshold } from '../matching/threshold';
-import { probeHitFilter, probeKeys, verifyCandidates, type ProbeCandidate, type SetMatch } from './candidates';
+import { probeHitFilter, probeKeys, probeSizeBounds, verifyCandidates, type ProbeCandidate, type SetMatch } from './candidates';
 import { resolveShingles, toRankArray } from './dictionary';
 import { chunks, execute, intArrayLiteral, lockIndex, parseIntArray, select } from './sql';
 
@@ -22,7 +22,8 @@ export interface AddSetsResult {
   newSetCount: number;
   newPairCount: number;
   candidates: number;
-  timings: { store: number; probe: number };
+  /** milliseconds; probe = hits + load + verify + pair writes; store = dictionary + sets + prefix entries */
+  timings: { store: number; probe: number; hits: number; load: number; verify: number; dictionary: number; prefixes: number };
 }
 
 /** Options of addSets. */
@@ -50,9 +51,10 @@ export async function addSets(
   const fresh = new Map<string, string[]>();
   for (const s of sets) if (!idByHash.has(s.hash) && s.shingles.length > 0) fresh.set(s.hash, s.shingles);
 
-  const newSets = await storeNewSets(tx, fresh, idByHash);
+  const storeTimings = { dictionary: 0, prefixes: 0 };
+  const newSets = await storeNewSets(tx, fresh, idByHash, storeTimings);
   const stored = performance.now();
-  const { pairs, candidates } = await probeNewSets(tx, newSets, options.batchSize ?? 1000);
+  const { pairs, candidates, timings } = await probeNewSets(tx, newSets, options.batchSize ?? 1000);
   await writePairs(tx, pairs);
   const emptyIds = await storeEmptySets(tx, sets, idByHash);
   return {
@@ -60,7 +62,7 @@ export async function addSets(
     newSetCount: newSets.length,
     newPairCount: pairs.length,
     candidates,
-    timings: { store: stored - started, probe: performance.now() - stored },
+    timings: { store: stored - started, probe: performance.now() - stored, ...timings, ...storeTimings },
   };
 }
 
@@ -97,12 +99,19 @@ interface NewSet {
   ranks: Int32Array;
 }
 
-async function storeNewSets(tx: Transaction, fresh: Map<string, string[]>, idByHash: Map<string, number>) {
+async function storeNewSets(
+  tx: Transaction,
+  fresh: Map<string, string[]>,
+  idByHash: Map<string, number>,
+  timings: { dictionary: number; prefixes: number },
+) {
+  let mark = performance.now();
   const documentFrequency = new Map<string, number>();
   for (const shingles of fresh.values()) {
     for (const s of shingles) documentFrequency.set(s, (documentFrequency.get(s) ?? 0) + 1);
   }
   const ranks = await resolveShingles(tx, documentFrequency);
+  timings.dictionary += performance.now() - mark;
   const hashes = [...fresh.keys()];
   const rankArrays = hashes.map((h) => toRankArray(fresh.get(h)!, ranks));
   const newSets: NewSet[] = [];
@@ -124,7 +133,9 @@ async function storeNewSets(tx: Transaction, fresh: Map<string, string[]>, idByH
       newSets.push({ id: row.id, ranks: rankArrays[position.get(row.hash)!] });
     }
   }
+  mark = performance.now();
   await writePrefixEntries(tx, newSets, indexThreshold);
+  timings.prefixes += performance.now() - mark;
   return newSets;
 }
 
@@ -171,49 +182,110 @@ export async function probeSets(
   probes: Int32Array[],
   t: Threshold,
   skip: (probe: number, setId: number) => boolean,
-): Promise<{ matches: SetMatch[]; candidates: number }> {
-  // Per key only (probe, rank, position); sizes per probe. Every int[] parameter is parsed by the
-  // server, so fewer and shorter arrays make a cheaper round trip; the length bounds are computed there.
-  const probeIndex: number[] = [];
-  const rank: number[] = [];
-  const position: number[] = [];
-  const sizes = probes.map((x) => x.length);
-  probes.forEach((x, p) => {
-    probeKeys(x, t).ranks.forEach((r, i) => {
-      probeIndex.push(p);
-      rank.push(r);
-      position.push(i);
-    });
-  });
-  if (rank.length === 0) return { matches: [], candidates: 0 };
-  const { p, q } = t;
-  const rows = await select<ProbeCandidate>(
-    tx,
-    `select distinct p.probe, e.set_id as "setId", e.size
-       from (select k.probe, k.rank, k.pos, ($4::int[])[k.probe + 1] as sz
-               from unnest($1::int[], $2::int[], $3::int[]) as k(probe, rank, pos)) as p
-       join prefix_entries e
-         on e.rank = p.rank and e.size between (${p}::bigint * p.sz + ${q - 1}) / ${q} and (${q}::bigint * p.sz) / ${p}
-      where ${probeHitFilter(t)}`,
-    [intArrayLiteral(probeIndex), intArrayLiteral(rank), intArrayLiteral(position), intArrayLiteral(sizes)],
-  );
-  const candidates = rows.filter((c) => !skip(c.probe, c.setId));
+): Promise<{ matches: SetMatch[]; candidates: number; timings: ProbeTimings }> {
+  const timings: ProbeTimings = { hits: 0, load: 0, verify: 0 };
+  let mark = performance.now();
+  const query = probeHitQuery(probes, t);
+  if (!query) return { matches: [], candidates: 0, timings };
+  const [row] = await select<{ probe: string | null; setId: string | null; size: string | null }>(tx, query.sql, query.bind);
+  const candidates: ProbeCandidate[] = [];
+  if (row.probe !== null) {
+    const probeOf = parseIntArray(row.probe);
+    const setOf = parseIntArray(row.setId!);
+    const sizeOf = parseIntArray(row.size!);
+    for (let i = 0; i < probeOf.length; i++) {
+      if (!skip(probeOf[i], setOf[i])) candidates.push({ probe: probeOf[i], setId: setOf[i], size: sizeOf[i] });
+    }
+  }
+  timings.hits = performance.now() - mark;
+  mark = performance.now();
   const stored = await loadSets(tx, [...new Set(candidates.map((c) => c.setId))]);
-  return { matches: verifyCandidates(candidates, probes, stored, t), candidates: candidates.length };
+  timings.load = performance.now() - mark;
+  mark = performance.now();
+  const matches = verifyCandidates(candidates, probes, stored, t);
+  timings.verify = performance.now() - mark;
+  return { matches, candidates: candidates.length, timings };
+}
+
+/**
+ * The hit query of a probe batch, or undefined when no probe has a key. Its one row holds three
+ * integer arrays as text (probe, setId, size: one element per candidate pair, position filter
+ * applied): one row parsed by parseIntArray costs far less than a driver object per candidate.
+ * Exported for profiling (EXPLAIN) in bench scripts.
+ */
+export function probeHitQuery(probes: Int32Array[], t: Threshold): { sql: string; bind: string[] } | undefined {
+  // One (rank, probe, position, size) row per key, sent in rank order: consecutive index lookups
+  // then land on the same or neighbouring pages of prefix_entries_probe (in bench:index this cut
+  // the query's execution about threefold against probe order).
+  let count = 0;
+  const keyRanks = probes.map((x) => probeKeys(x, t).ranks);
+  for (const r of keyRanks) count += r.length;
+  if (count === 0) return undefined;
+  const order = new Uint32Array(count);
+  const rankOf = new Int32Array(count);
+  const probeOf = new Int32Array(count);
+  const positionOf = new Int32Array(count);
+  let k = 0;
+  keyRanks.forEach((ranks, p) => {
+    for (let i = 0; i < ranks.length; i++, k++) {
+      order[k] = k;
+      rankOf[k] = ranks[i];
+      probeOf[k] = p;
+      positionOf[k] = i;
+    }
+  });
+  order.sort((u, v) => rankOf[u] - rankOf[v] || u - v);
+  const pick = (from: Int32Array) => Int32Array.from(order, (i) => from[i]);
+  const probeColumn = pick(probeOf);
+  const [lo, hi] = probeSizeBounds(t);
+  return {
+    sql: `select array_agg(probe)::text as probe, array_agg(set_id)::text as "setId", array_agg(size)::text as size
+       from (select distinct p.probe, e.set_id, e.size
+               from unnest($1::int[], $2::int[], $3::int[], $4::int[]) as p(rank, probe, pos, sz)
+               join prefix_entries e
+                 on e.rank = p.rank and e.size between ${lo} and ${hi}
+              where ${probeHitFilter(t)}) as hits`,
+    bind: [
+      intArrayLiteral(pick(rankOf)),
+      intArrayLiteral(probeColumn),
+      intArrayLiteral(pick(positionOf)),
+      intArrayLiteral(Int32Array.from(probeColumn, (i) => probes[i].length)),
+    ],
+  };
+}
+
+/** Where a probe's time went, in milliseconds: the hit query, loading candidate sets, verification. */
+export interface ProbeTimings {
+  hits: number;
+  load: number;
+  verify: number;
 }
 
 /** Rank arrays of stored sets by id. */
 export async function loadSets(tx: Transaction | undefined, ids: number[]): Promise<Map<number, Int32Array>> {
   const sets = new Map<number, Int32Array>();
   for (const [start, end] of chunks(ids.length, WRITE_CHUNK)) {
-    // as text: parsing '{1,2,3}' straight into an Int32Array is several times faster than the
-    // driver's generic array parser followed by a copy
-    const rows = await select<{ id: number; ranks: string }>(
+    // One row per chunk: ids, sizes and every rank concatenated, all as text, parsed into typed
+    // arrays and cut into views. A row per set cost a driver object and a parse call per set.
+    // The three aggregates read the same ordered rows, so the k-th id, size and run of ranks agree
+    // (string_agg skips the nulls of empty sets, whose run has length 0).
+    const [row] = await select<{ ids: string | null; sizes: string | null; ranks: string | null }>(
       tx,
-      'select id, ranks::text as ranks from shingle_sets where id = any($1::int[])',
-      [ids.slice(start, end)],
+      `select array_agg(id)::text as ids, array_agg(size)::text as sizes,
+              '{' || coalesce(string_agg(nullif(array_to_string(ranks, ','), ''), ','), '') || '}' as ranks
+         from (select id, size, ranks from shingle_sets where id = any($1::int[]) order by id) as s`,
+      [intArrayLiteral(ids.slice(start, end))],
     );
-    for (const row of rows) sets.set(row.id, parseIntArray(row.ranks));
+    if (row.ids === null) continue;
+    const idOf = parseIntArray(row.ids);
+    const sizeOf = parseIntArray(row.sizes!);
+    const ranks = parseIntArray(row.ranks!);
+    let offset = 0;
+    for (let i = 0; i < idOf.length; i++) {
+      sets.set(idOf[i], ranks.subarray(offset, offset + sizeOf[i]));
+      offset += sizeOf[i];
+    }
+    if (offset !== ranks.length) throw new Error(`loaded ${ranks.length} ranks for sets totalling ${offset}`);
   }
   return sets;
 }
@@ -240,6 +312,7 @@ async function writePairs(tx: Transaction, pairs: StoredPair[]) {
 async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: number) {
   const pairs = new Map<string, StoredPair>();
   let candidates = 0;
+  const timings: ProbeTimings = { hits: 0, load: 0, verify: 0 };
   // The filter is symmetric, so a pair of two new sets is found by both: only the probe with the
   // larger id keeps it, which halves the verification work among new sets.
   const isNew = new Set(newSets.map((s) => s.id));
@@ -254,6 +327,9 @@ async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: numbe
       (probe, setId) => setId >= batch[probe].id && isNew.has(setId),
     );
     candidates += result.candidates;
+    timings.hits += result.timings.hits;
+    timings.load += result.timings.load;
+    timings.verify += result.timings.verify;
     for (const m of result.matches) {
       const x = batch[m.probe];
       const a = Math.min(x.id, m.setId);
@@ -261,5 +337,5 @@ async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: numbe
       pairs.set(`${a}:${b}`, { a, b, overlap: m.overlap, similarity: m.similarity });
     }
   }
-  return { pairs: [...pairs.values()], candidates };
+  return { pairs: [...pairs.values()], candidates, timings };
 }

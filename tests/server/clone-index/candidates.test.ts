@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { probeHitFilter, probeKeys } from '../../../server/clone-index/candidates';
+import { probeHitFilter, probeKeys, probeSizeBounds } from '../../../server/clone-index/candidates';
 import { select } from '../../../server/clone-index/sql';
 import { minOverlap, parseThreshold, reaches, type Threshold } from '../../../server/matching/threshold';
 import { useDatabase } from '../../support';
@@ -73,6 +73,32 @@ describe('probeHitFilter', () => {
             return h.sz - h.pos >= alpha && h.size - h.position >= alpha;
           });
           expect(await filterInDatabase(t, hits)).toEqual(expected);
+        },
+      ),
+      { numRuns: 20 },
+    );
+  });
+
+  it('probeSizeBounds reads exactly the sizes the length filter and the probe side of the position filter keep', async () => {
+    await fc.assert(
+      fc.asyncProperty(
+        thresholds,
+        fc.array(fc.record({ sz: fc.integer({ min: 1, max: 300 }), pos: fc.nat(299), size: fc.integer({ min: 1, max: 600 }) }), { minLength: 1, maxLength: 50 }),
+        async (value, raw) => {
+          const t = parseThreshold(value);
+          const hits = raw.map((h) => ({ ...h, pos: h.pos % h.sz }));
+          const [lo, hi] = probeSizeBounds(t);
+          const rows = await select<{ ok: boolean }>(
+            undefined,
+            `select (e.size between ${lo} and ${hi}) as ok
+               from unnest($1::int[], $2::int[], $3::int[]) with ordinality as h(pos, sz, size, n),
+                    lateral (select h.pos, h.sz) as p, lateral (select h.size) as e
+              order by h.n`,
+            [hits.map((h) => h.pos), hits.map((h) => h.sz), hits.map((h) => h.size)],
+          );
+          // q·size ≥ p·sz is the length filter's lower end (size ≥ ⌈t·sz⌉), the rest the probe side
+          const expected = hits.map((h) => t.q * h.size >= t.p * h.sz && h.sz - h.pos >= minOverlap(t, h.sz, h.size));
+          expect(rows.map((r) => r.ok)).toEqual(expected);
         },
       ),
       { numRuns: 20 },
