@@ -1,4 +1,5 @@
 import { bruteJoinAgainst, bruteSelfJoin } from './brute';
+import { overlapBound, SIGNATURE_WORDS, writeSignature } from './bitmap';
 import { overlapFrom, packBySize } from './packed';
 import { minOverlap, overlapAtLeast, prefixLength, reaches, sizeBounds, type Threshold } from './threshold';
 import type { Algorithm, JoinOptions, JoinProfile, JoinStats, SetPair } from './types';
@@ -50,11 +51,13 @@ export function selfJoin(sets: readonly Int32Array[], t: Threshold, options: Joi
       pairs = selfJoinByLength(sets, t, stats);
       break;
     case 'prefix':
-      pairs = selfJoinByPrefix(sets, t, false, stats, options.profile);
+      pairs = selfJoinByPrefix(sets, t, false, false, stats, options.profile);
       break;
     case 'position':
+      pairs = selfJoinByPrefix(sets, t, true, false, stats, options.profile);
+      break;
     case 'auto':
-      pairs = selfJoinByPrefix(sets, t, true, stats, options.profile);
+      pairs = selfJoinByPrefix(sets, t, true, true, stats, options.profile);
       break;
     default:
       throw new Error(`unknown algorithm "${String(algorithm)}"`);
@@ -187,6 +190,10 @@ interface PrefixIndex {
 const SIZE = 0;
 const SET = 1;
 const POSITION = 2;
+/** Packed index only (entries are ENTRY wide there): where the set starts in the packed data, and its bitmap signature. */
+const START = 3;
+const SIGNATURE = 4;
+const ENTRY = 4 + SIGNATURE_WORDS;
 
 function buildPrefixIndex(
   sets: readonly Int32Array[],
@@ -275,6 +282,7 @@ function selfJoinByPrefix(
   sets: readonly Int32Array[],
   t: Threshold,
   usePosition: boolean,
+  useBitmap: boolean,
   stats?: JoinStats,
   profile?: JoinProfile,
 ): SetPair[] {
@@ -285,9 +293,12 @@ function selfJoinByPrefix(
   for (let m = 0; m < count; m++) if (data[start[m + 1] - 1] + 1 > vocabulary) vocabulary = data[start[m + 1] - 1] + 1;
   const { listStart, entries } = buildPackedIndex(data, start, (size) => size - minOverlap(t, size, size) + 1, vocabulary);
   const listHead = listStart.slice(0, vocabulary);
-  const candidate = newCandidates(count);
-  const counts = candidate.count;
-  const { lastX, lastY, touched } = candidate;
+  // Per-candidate state interleaved, one 32-byte slot per set (count, last x position, last y
+  // position, start and size of y), so a list entry costs one cache miss, not three, and the
+  // verification finds y without reading `start`; reset through the touched list.
+  const state = new Int32Array(8 * count);
+  const signatureX = new Int32Array(SIGNATURE_WORDS);
+  const touched = new Int32Array(count);
   // α(x, y) for the sizes of y in x's length window, indexed by |y| − lower; refilled per x.
   let required = new Int32Array(64);
   if (profile) clock = lap(profile, 'indexMs', clock);
@@ -302,50 +313,65 @@ function selfJoinByPrefix(
     if (sizeX - lower + 1 > required.length) required = new Int32Array(2 * (sizeX - lower + 1));
     for (let size = lower; size <= sizeX; size++) required[size - lower] = minOverlap(t, sizeX, size);
     const probe = prefixLength(t, sizeX);
+    if (useBitmap) writeSignature(data, x0, x0 + sizeX, signatureX, 0);
     // Largest |y| a pair first met at the current position may have (size cut, see above).
     let newUpTo = sizeX;
     let touchedCount = 0;
     for (let i = 0; i < probe; i++) {
       const w = data[x0 + i];
       if (usePosition) while (newUpTo >= lower && required[newUpTo - lower] > sizeX - i) newUpTo--;
-      const end = 3 * listStart[w + 1];
-      let e = 3 * listHead[w];
-      while (e < end && entries[e + SIZE] < lower) e += 3;
-      listHead[w] = e / 3;
-      for (; e < end; e += 3) {
+      const end = ENTRY * listStart[w + 1];
+      let e = ENTRY * listHead[w];
+      while (e < end && entries[e + SIZE] < lower) e += ENTRY;
+      listHead[w] = e / ENTRY;
+      for (; e < end; e += ENTRY) {
         const y = entries[e + SET];
         if (y >= k) break;
         const sizeY = entries[e + SIZE];
-        if (usePosition && sizeY > newUpTo) break;
-        const c = counts[y];
-        if (c < 0) continue;
         const j = entries[e + POSITION];
+        if (usePosition) {
+          if (sizeY > newUpTo) break;
+          // Entry check: with nothing counted before, y's ids from j on cannot bring the pair
+          // up to α. Skipped without reading y's state (no cache miss): a pair first met here
+          // is no candidate, and a pair already counted keeps its last update (see above).
+          if (sizeY - j < required[sizeY - lower]) continue;
+        }
+        // Bitmap filter: the same bound at every entry of the pair, so a pair it drops is
+        // never touched at all.
+        if (useBitmap && overlapBound(signatureX, 0, sizeX, entries, e + SIGNATURE, sizeY) < required[sizeY - lower]) continue;
+        const slot = 8 * y;
+        const c = state[slot];
+        if (c < 0) continue;
+        if (c === 0) {
+          touched[touchedCount++] = y;
+          state[slot + 3] = entries[e + START];
+          state[slot + 4] = sizeY;
+        }
         if (usePosition) {
           const restX = sizeX - i - 1;
           const restY = sizeY - j - 1;
           if (c + 1 + (restX < restY ? restX : restY) < required[sizeY - lower]) {
-            if (c === 0) touched[touchedCount++] = y;
-            counts[y] = -1;
+            state[slot] = -1;
             continue;
           }
         }
-        if (c === 0) touched[touchedCount++] = y;
-        counts[y] = c + 1;
-        lastX[y] = i;
-        lastY[y] = j;
+        state[slot] = c + 1;
+        state[slot + 1] = i;
+        state[slot + 2] = j;
       }
     }
     candidates += touchedCount;
     if (profile) clock = lap(profile, 'probeMs', clock);
     for (let n = 0; n < touchedCount; n++) {
       const m = touched[n];
-      const c = counts[m];
-      counts[m] = 0;
+      const slot = 8 * m;
+      const c = state[slot];
+      state[slot] = 0;
       if (c < 0) continue;
       verified++;
-      const y0 = start[m];
-      const sizeY = start[m + 1] - y0;
-      const overlap = overlapFrom(data, x0, x0 + sizeX, y0, y0 + sizeY, x0 + lastX[m] + 1, y0 + lastY[m] + 1, c, required[sizeY - lower]);
+      const y0 = state[slot + 3];
+      const sizeY = state[slot + 4];
+      const overlap = overlapFrom(data, x0, x0 + sizeX, y0, y0 + sizeY, x0 + state[slot + 1] + 1, y0 + state[slot + 2] + 1, c, required[sizeY - lower]);
       if (overlap >= 0 && reaches(t, sizeX, sizeY, overlap)) pairs.push(selfPair(order[k], order[m], overlap));
     }
     if (profile) clock = lap(profile, 'verifyMs', clock);
@@ -376,15 +402,23 @@ function buildPackedIndex(
   }
   for (let w = 1; w <= vocabulary; w++) listStart[w] += listStart[w - 1];
   const fill = listStart.slice(0, vocabulary);
-  const entries = new Int32Array(total * 3);
+  const entries = new Int32Array(total * ENTRY);
   for (let m = 0; m < count; m++) {
     const size = start[m + 1] - start[m];
     const prefix = prefixOf(size);
+    let first = 0;
     for (let i = 0; i < prefix; i++) {
-      const e = 3 * fill[data[start[m] + i]]++;
+      const e = ENTRY * fill[data[start[m] + i]]++;
       entries[e + SIZE] = size;
       entries[e + SET] = m;
       entries[e + POSITION] = i;
+      entries[e + START] = start[m];
+      if (i === 0) {
+        writeSignature(data, start[m], start[m] + size, entries, e + SIGNATURE);
+        first = e;
+      } else {
+        for (let b = SIGNATURE; b < ENTRY; b++) entries[e + b] = entries[first + b];
+      }
     }
   }
   return { listStart, entries };

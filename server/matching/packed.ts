@@ -16,13 +16,15 @@ export interface PackedSets {
 }
 
 /**
- * Packs the non-empty sets by ascending size, equal sizes in lexicographic order of their ids
- * (ties, i.e. equal sets, by input index). Empty sets are dropped: they pair with nothing.
+ * Packs the non-empty sets by ascending size, equal sizes by their first (rarest) id, then by
+ * input index. Empty sets are dropped: they pair with nothing.
  *
- * Why lexicographic: sets that share their first (rarest) ids, near copies above all, end up
- * next to each other, so a probe's candidates and the inverted lists it walks are mostly already
- * in the cache. The order changes no result (any processing order in non-decreasing size is
- * valid), only the memory traffic.
+ * Why the first id: sets that share it, near copies above all, end up next to each other, so a
+ * probe's candidates and the list entries it walks are mostly already in the cache. Two counting
+ * sorts (first id, then size, both stable) cost O(sets + ids); a full lexicographic sort with a
+ * comparator cost 3 s more on a million sets and saved less than that (server/bench/join.ts). The
+ * order changes no result (any processing order in non-decreasing size is valid), only the
+ * memory traffic.
  *
  * @example
  * packBySize([Int32Array.of(5, 6), new Int32Array(0), Int32Array.of(1, 9), Int32Array.of(4)])
@@ -30,32 +32,18 @@ export interface PackedSets {
  */
 export function packBySize(sets: readonly Int32Array[]): PackedSets {
   let maxSize = 0;
+  let maxFirst = -1;
   let nonEmpty = 0;
   let total = 0;
   for (const set of sets) {
+    if (set.length === 0) continue;
     if (set.length > maxSize) maxSize = set.length;
-    if (set.length > 0) nonEmpty++;
+    if (set[0] > maxFirst) maxFirst = set[0];
+    nonEmpty++;
     total += set.length;
   }
-  // Counting sort by size (stable: equal sizes keep input order)...
-  const bucket = new Int32Array(maxSize + 2);
-  for (const set of sets) if (set.length > 0) bucket[set.length + 1]++;
-  for (let s = 1; s < bucket.length; s++) bucket[s] += bucket[s - 1];
-  const order = new Int32Array(nonEmpty);
-  const groupStart = bucket.slice();
-  for (let i = 0; i < sets.length; i++) if (sets[i].length > 0) order[bucket[sets[i].length]++] = i;
-  // ...then each run of equal size sorted lexicographically, ties by input index.
-  const lexicographic = (u: number, v: number): number => {
-    const x = sets[u];
-    const y = sets[v];
-    for (let i = 0; i < x.length; i++) if (x[i] !== y[i]) return x[i] - y[i];
-    return u - v;
-  };
-  for (let size = 1; size <= maxSize; size++) {
-    const from = groupStart[size];
-    const to = groupStart[size + 1];
-    if (to - from > 1) order.subarray(from, to).sort(lexicographic);
-  }
+  const byFirst = countingSort(sets, nonEmpty, maxFirst + 1, (set) => set[0], null);
+  const order = countingSort(sets, nonEmpty, maxSize + 1, (set) => set.length, byFirst);
   const start = new Int32Array(nonEmpty + 1);
   const data = new Int32Array(total);
   let offset = 0;
@@ -67,6 +55,26 @@ export function packBySize(sets: readonly Int32Array[]): PackedSets {
   }
   start[nonEmpty] = offset;
   return { data, start, order };
+}
+
+/** Stable counting sort of the non-empty sets' indexes (taken in `within` order, or input order) by a key in [0, keys). */
+function countingSort(
+  sets: readonly Int32Array[],
+  nonEmpty: number,
+  keys: number,
+  keyOf: (set: Int32Array) => number,
+  within: Int32Array | null,
+): Int32Array {
+  const bucket = new Int32Array(keys + 1);
+  for (const set of sets) if (set.length > 0) bucket[keyOf(set) + 1]++;
+  for (let key = 1; key <= keys; key++) bucket[key] += bucket[key - 1];
+  const out = new Int32Array(nonEmpty);
+  if (within) {
+    for (let n = 0; n < within.length; n++) out[bucket[keyOf(sets[within[n]])]++] = within[n];
+  } else {
+    for (let i = 0; i < sets.length; i++) if (sets[i].length > 0) out[bucket[keyOf(sets[i])]++] = i;
+  }
+  return out;
 }
 
 /**
