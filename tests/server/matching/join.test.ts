@@ -194,6 +194,75 @@ describe('selfJoin', () => {
   });
 });
 
+/**
+ * Larger sets than above (up to 300 ids, near copies with a few edits): long prefixes, several
+ * shared prefix ids per pair, the size cut at late prefix positions and saturated 128-bit
+ * signatures all come into play here.
+ */
+const largeCollection = fc
+  .tuple(
+    fc.array(fc.uniqueArray(fc.integer({ min: 0, max: 1500 }), { minLength: 1, maxLength: 300 }), { minLength: 1, maxLength: 12 }),
+    fc.array(fc.record({ from: fc.nat(), edits: fc.array(fc.tuple(fc.nat(), fc.integer({ min: 0, max: 1500 })), { maxLength: 12 }) }), {
+      maxLength: 14,
+    }),
+  )
+  .map(([sets, copies]) => {
+    const out = sets.map((set) => [...set]);
+    for (const { from, edits } of copies) {
+      const next = [...out[from % out.length]];
+      for (const [at, id] of edits) {
+        if (next.length > 1 && at % 2 === 0) next.splice(at % next.length, 1);
+        else next.push(id);
+      }
+      out.push(next);
+    }
+    return out;
+  });
+
+describe('selfJoin on larger sets', () => {
+  it('returns exactly the brute-force pairs for the filtered methods', () => {
+    fc.assert(
+      fc.property(largeCollection, fc.constantFrom(...THRESHOLDS, parseThreshold('0.7'), parseThreshold('9/10')), (raw, t) => {
+        const { ranked } = rankIntegerSets(raw);
+        const oracle = bruteSelfJoin(ranked, t);
+        for (const algorithm of ['prefix', 'position', 'auto'] as const) {
+          expect(selfJoin(ranked, t, { algorithm }), algorithm).toEqual(oracle);
+        }
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it('verifies no more pairs with the bitmap filter (auto) than without it (position)', () => {
+    fc.assert(
+      fc.property(largeCollection, fc.constantFrom(...THRESHOLDS), (raw, t) => {
+        const { ranked } = rankIntegerSets(raw);
+        const position = newJoinStats();
+        const auto = newJoinStats();
+        selfJoin(ranked, t, { algorithm: 'position', stats: position });
+        selfJoin(ranked, t, { algorithm: 'auto', stats: auto });
+        expect(auto.verified).toBeLessThanOrEqual(position.verified);
+        expect(auto.results).toBe(position.results);
+      }),
+      { numRuns: 100 },
+    );
+  });
+
+  describe('edge cases', () => {
+    it('finds a copy of a 300-id set that lost exactly enough ids to sit at t = 0.8', () => {
+      // 300 ids against the first 240 of them: J = 240/300 = 0.8 exactly; one id fewer falls below
+      const x = Int32Array.from({ length: 300 }, (_, i) => i);
+      const y = x.slice(0, 240);
+      const z = x.slice(0, 239);
+      const t = parseThreshold('0.8');
+      for (const algorithm of ALGORITHMS) {
+        expect(selfJoin([x, y], t, { algorithm }), algorithm).toEqual([{ a: 0, b: 1, overlap: 240 }]);
+        expect(selfJoin([x, z], t, { algorithm }), algorithm).toEqual([]);
+      }
+    });
+  });
+});
+
 describe('joinAgainst', () => {
   it('equals the brute-force cross pairs, and the cross part of the self-join of both', () => {
     fc.assert(
