@@ -1,6 +1,6 @@
 /** Types shared by the join, the oracle and their callers. */
 
-/** The join methods, from the oracle to the fastest; all return the same pairs. */
+/** The join methods, from the oracle to the fastest; all return the same pairs ('auto' adds the bitmap filter to 'position' in the self-join). */
 export type Algorithm = 'brute' | 'length' | 'prefix' | 'position' | 'auto';
 
 /** Every method, in order of increasing filtering (for `--algorithm` and the benchmark). */
