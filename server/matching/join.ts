@@ -264,8 +264,8 @@ function newCandidates(size: number): Candidates {
  * lies in both prefixes. Only valid for this order: a set indexed before a larger partner
  * probes it would be missed, hence joinAgainst indexes the full probing prefix.
  *
- * The index is built up front; its lists hold sets in processing order, so "indexed before x"
- * is "entry's set number < k", and the scan of a list stops at the first later set.
+ * Each set is appended to the index right after its own probe, so x only ever meets sets
+ * processed before it, and each list holds its sets in processing order (ascending size).
  *
  * Probe of x, at each prefix position i:
  * - length filter: sizes only grow along the processing order, so each list's too-small head
@@ -301,7 +301,13 @@ function selfJoinByPrefix(
   const count = order.length;
   let vocabulary = 0;
   for (let m = 0; m < count; m++) if (data[start[m + 1] - 1] + 1 > vocabulary) vocabulary = data[start[m + 1] - 1] + 1;
-  const { listStart, entries } = buildPackedIndex(data, start, (size) => size - minOverlap(t, size, size) + 1, vocabulary);
+  const listStart = listCapacities(data, start, t, vocabulary);
+  const entries = new Int32Array(ENTRY * listStart[vocabulary]);
+  // Lists hold processed sets only: [listHead[w], listEnd[w]). Each set is appended after its
+  // probe, at the tails of lists the probe has just read (its short prefix lies within its
+  // probing prefix), so the writes mostly hit the cache; a list with nothing live is passed
+  // over without reading its entries.
+  const listEnd = listStart.slice(0, vocabulary);
   const listHead = listStart.slice(0, vocabulary);
   // Per-candidate state interleaved, one 32-byte slot per set (count, last x position, last y
   // position, start and size of y), so a list entry costs one cache miss, not three, and the
@@ -330,13 +336,13 @@ function selfJoinByPrefix(
     for (let i = 0; i < probe; i++) {
       const w = data[x0 + i];
       if (usePosition) while (newUpTo >= lower && required[newUpTo - lower] > sizeX - i) newUpTo--;
-      const end = ENTRY * listStart[w + 1];
+      const end = ENTRY * listEnd[w];
       let e = ENTRY * listHead[w];
+      if (e === end) continue;
       while (e < end && entries[e + SIZE] < lower) e += ENTRY;
       listHead[w] = e / ENTRY;
       for (; e < end; e += ENTRY) {
         const y = entries[e + SET];
-        if (y >= k) break;
         const sizeY = entries[e + SIZE];
         const j = entries[e + POSITION];
         if (usePosition) {
@@ -385,6 +391,17 @@ function selfJoinByPrefix(
       if (overlap >= 0 && reaches(t, sizeX, sizeY, overlap)) pairs.push(selfPair(order[k], order[m], overlap));
     }
     if (profile) clock = lap(profile, 'verifyMs', clock);
+    // Index x with its short prefix |x| − α(x, x) + 1 (α(x, x) is required[|x| − lower]).
+    const indexPrefix = sizeX - required[sizeX - lower] + 1;
+    for (let i = 0; i < indexPrefix; i++) {
+      const e = ENTRY * listEnd[data[x0 + i]]++;
+      entries[e + SIZE] = sizeX;
+      entries[e + SET] = k;
+      entries[e + POSITION] = i;
+      entries[e + START] = x0;
+      if (useBitmap) for (let b = 0; b < SIGNATURE_WORDS; b++) entries[e + SIGNATURE + b] = signatureX[b];
+    }
+    if (profile) clock = lap(profile, 'indexMs', clock);
   }
   if (stats) {
     stats.candidates += candidates;
@@ -394,44 +411,18 @@ function selfJoinByPrefix(
 }
 
 /**
- * buildPrefixIndex over packed sets: set m (in packing order) indexes its first prefixOf(|m|) ids.
+ * Offsets of the self-join's inverted lists (compressed rows): list w gets one slot per set
+ * whose short prefix |y| − α(y, y) + 1 holds w; listStart[vocabulary] is the total.
  */
-function buildPackedIndex(
-  data: Int32Array,
-  start: Int32Array,
-  prefixOf: (size: number) => number,
-  vocabulary: number,
-): PrefixIndex {
-  const count = start.length - 1;
+function listCapacities(data: Int32Array, start: Int32Array, t: Threshold, vocabulary: number): Int32Array {
   const listStart = new Int32Array(vocabulary + 1);
-  let total = 0;
-  for (let m = 0; m < count; m++) {
-    const prefix = prefixOf(start[m + 1] - start[m]);
-    total += prefix;
+  for (let m = 0; m + 1 < start.length; m++) {
+    const size = start[m + 1] - start[m];
+    const prefix = size - minOverlap(t, size, size) + 1;
     for (let i = 0; i < prefix; i++) listStart[data[start[m] + i] + 1]++;
   }
   for (let w = 1; w <= vocabulary; w++) listStart[w] += listStart[w - 1];
-  const fill = listStart.slice(0, vocabulary);
-  const entries = new Int32Array(total * ENTRY);
-  for (let m = 0; m < count; m++) {
-    const size = start[m + 1] - start[m];
-    const prefix = prefixOf(size);
-    let first = 0;
-    for (let i = 0; i < prefix; i++) {
-      const e = ENTRY * fill[data[start[m] + i]]++;
-      entries[e + SIZE] = size;
-      entries[e + SET] = m;
-      entries[e + POSITION] = i;
-      entries[e + START] = start[m];
-      if (i === 0) {
-        writeSignature(data, start[m], start[m] + size, entries, e + SIGNATURE);
-        first = e;
-      } else {
-        for (let b = SIGNATURE; b < ENTRY; b++) entries[e + b] = entries[first + b];
-      }
-    }
-  }
-  return { listStart, entries };
+  return listStart;
 }
 
 /** Adds the time since `since` to one phase and returns the new clock. */
