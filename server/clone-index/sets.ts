@@ -33,6 +33,8 @@ export interface AddSetsOptions {
 }
 
 const WRITE_CHUNK = 20_000;
+/** Most sets a probe cache keeps (at ~50 ranks a set, about 100 MB). */
+const CACHE_LIMIT = 500_000;
 
 /**
  * Adds shingle sets to the index. Only sets never seen before (by hash) are stored, written to the
@@ -176,12 +178,16 @@ export async function writePrefixEntries(tx: Transaction, sets: NewSet[], t: Thr
  * Probes the prefix table with probe sets: one SQL round trip per batch for the candidates (the
  * position filter runs in the database, so only hits that can matter travel, once per pair), one
  * for the candidates' sets, then verification here. `skip` drops a candidate before it is loaded.
+ * `cache`, when given, keeps loaded sets for later calls in the same transaction under the index
+ * write lock (no rank array can change there: a rebuild takes the same lock); sets found in it are
+ * not loaded again.
  */
 export async function probeSets(
   tx: Transaction | undefined,
   probes: Int32Array[],
   t: Threshold,
   skip: (probe: number, setId: number) => boolean,
+  cache?: Map<number, Int32Array>,
 ): Promise<{ matches: SetMatch[]; candidates: number; timings: ProbeTimings }> {
   const timings: ProbeTimings = { hits: 0, load: 0, verify: 0 };
   let mark = performance.now();
@@ -199,7 +205,13 @@ export async function probeSets(
   }
   timings.hits = performance.now() - mark;
   mark = performance.now();
-  const stored = await loadSets(tx, [...new Set(candidates.map((c) => c.setId))]);
+  const wanted = [...new Set(candidates.map((c) => c.setId))];
+  const stored = await loadSets(tx, cache ? wanted.filter((id) => !cache.has(id)) : wanted);
+  if (cache) {
+    // bounded: past CACHE_LIMIT sets (~4 bytes a rank) new loads are used once and not kept
+    for (const [id, ranks] of stored) if (cache.size < CACHE_LIMIT) cache.set(id, ranks);
+    for (const id of wanted) if (!stored.has(id)) stored.set(id, cache.get(id)!);
+  }
   timings.load = performance.now() - mark;
   mark = performance.now();
   const matches = verifyCandidates(candidates, probes, stored, t);
@@ -316,6 +328,8 @@ async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: numbe
   // The filter is symmetric, so a pair of two new sets is found by both: only the probe with the
   // larger id keeps it, which halves the verification work among new sets.
   const isNew = new Set(newSets.map((s) => s.id));
+  // New sets are known here already; stored sets loaded for one batch are often candidates of the next.
+  const cache = new Map<number, Int32Array>(newSets.map((s) => [s.id, s.ranks]));
   // The probe queries are large but simple index lookups: compiling them (JIT) costs more than it saves.
   await execute(tx, 'set local jit = off');
   for (const [start, end] of chunks(newSets.length, Math.max(1, batchSize))) {
@@ -325,6 +339,7 @@ async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: numbe
       batch.map((s) => s.ranks),
       indexThreshold,
       (probe, setId) => setId >= batch[probe].id && isNew.has(setId),
+      cache,
     );
     candidates += result.candidates;
     timings.hits += result.timings.hits;
