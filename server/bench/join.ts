@@ -29,7 +29,7 @@ import { parseThreshold } from '../matching/threshold';
 const DEFAULT_SIZES = [10_000, 20_000, 100_000, 1_000_000];
 /** Beyond these sizes a method takes minutes (it is quadratic in the sets of similar size). */
 const QUADRATIC_LIMIT = 20_000;
-const METHODS: Algorithm[] = ['brute', 'length', 'prefix', 'position', 'auto'];
+const METHODS: Algorithm[] = ['brute', 'length', 'prefix', 'position', 'bitmap', 'auto'];
 
 const VOCABULARY = 1 << 20;
 const ZIPF_TABLE = 1 << 21;

@@ -19,10 +19,11 @@ export { ALGORITHMS, newJoinStats } from './types';
  *             of prefixes (one counter per indexed set, reused, with a touched list);
  * - position: drops a candidate as soon as the ids left after a shared one cannot bring the
  *             overlap up to the required α;
- * - auto:     the fastest exact one. Self-join: position plus the bitmap filter (bitmap.ts), which
- *             drops most pairs that share a rare id by chance before their state is touched
- *             (on the benchmark's million sets, 28.4M verified pairs → 6.7M); joinAgainst:
- *             position. See server/bench/join.ts.
+ * - bitmap:   position plus the bitmap filter (bitmap.ts), which drops most pairs that share a
+ *             rare id by chance before their state is touched (on the benchmark's million sets,
+ *             28.4M verified pairs → 6.7M). Self-join only; joinAgainst runs position for it;
+ * - auto:     the fastest exact one for the collection: bitmap from BITMAP_MIN_IDS ids on,
+ *             position below (see server/bench/join.ts).
  * Survivors are verified by merging the two arrays from just after the last shared prefix id,
  * stopping as soon as α is out of reach. The self-join works on the sets packed into one
  * Int32Array (packed.ts).
@@ -58,10 +59,12 @@ export function selfJoin(sets: readonly Int32Array[], t: Threshold, options: Joi
       pairs = selfJoinByPrefix(sets, t, false, false, stats, options.profile);
       break;
     case 'position':
-      pairs = selfJoinByPrefix(sets, t, true, false, stats, options.profile);
+    case 'bitmap':
+    case 'auto': {
+      const bitmap = algorithm === 'bitmap' || (algorithm === 'auto' && totalIds(sets) >= BITMAP_MIN_IDS);
+      pairs = selfJoinByPrefix(sets, t, true, bitmap, stats, options.profile);
       break;
-    case 'auto':
-      pairs = selfJoinByPrefix(sets, t, true, true, stats, options.profile);
+    }
       break;
     default:
       throw new Error(`unknown algorithm "${String(algorithm)}"`);
@@ -101,6 +104,7 @@ export function joinAgainst(
       pairs = joinAgainstByPrefix(probe, indexed, t, false, stats, options.profile);
       break;
     case 'position':
+    case 'bitmap':
     case 'auto':
       pairs = joinAgainstByPrefix(probe, indexed, t, true, stats, options.profile);
       break;
@@ -109,6 +113,21 @@ export function joinAgainst(
   }
   if (stats) stats.results += pairs.length;
   return sortPairs(pairs);
+}
+
+/**
+ * From how many ids in all (the sum of the set sizes) 'auto' uses the bitmap filter. Below it
+ * the candidates' ids mostly sit in the cache, a merge that fails is cheap, and the filter's
+ * per-entry cost does not pay back. Measured with server/bench/join.ts on this 2-core machine
+ * (CPU time, bitmap against position): 10M ids (100k sets) +25%, 30M ids (300k sets) even,
+ * 100M ids (1M sets) −25%.
+ */
+export const BITMAP_MIN_IDS = 32_000_000;
+
+function totalIds(sets: readonly Int32Array[]): number {
+  let total = 0;
+  for (const set of sets) total += set.length;
+  return total;
 }
 
 /** Largest id over all sets (−1 when there is none), after checking each set's shape. */
@@ -302,7 +321,9 @@ function selfJoinByPrefix(
   let vocabulary = 0;
   for (let m = 0; m < count; m++) if (data[start[m + 1] - 1] + 1 > vocabulary) vocabulary = data[start[m + 1] - 1] + 1;
   const listStart = listCapacities(data, start, t, vocabulary);
-  const entries = new Int32Array(ENTRY * listStart[vocabulary]);
+  // Entries are 4 ids wide, 8 with the signature (aligned either way).
+  const stride = useBitmap ? ENTRY : SIGNATURE;
+  const entries = new Int32Array(stride * listStart[vocabulary]);
   // Lists hold processed sets only: [listHead[w], listEnd[w]). Each set is appended after its
   // probe, at the tails of lists the probe has just read (its short prefix lies within its
   // probing prefix), so the writes mostly hit the cache; a list with nothing live is passed
@@ -336,12 +357,12 @@ function selfJoinByPrefix(
     for (let i = 0; i < probe; i++) {
       const w = data[x0 + i];
       if (usePosition) while (newUpTo >= lower && required[newUpTo - lower] > sizeX - i) newUpTo--;
-      const end = ENTRY * listEnd[w];
-      let e = ENTRY * listHead[w];
+      const end = stride * listEnd[w];
+      let e = stride * listHead[w];
       if (e === end) continue;
-      while (e < end && entries[e + SIZE] < lower) e += ENTRY;
-      listHead[w] = e / ENTRY;
-      for (; e < end; e += ENTRY) {
+      while (e < end && entries[e + SIZE] < lower) e += stride;
+      listHead[w] = e / stride;
+      for (; e < end; e += stride) {
         const y = entries[e + SET];
         const sizeY = entries[e + SIZE];
         const j = entries[e + POSITION];
@@ -394,7 +415,7 @@ function selfJoinByPrefix(
     // Index x with its short prefix |x| − α(x, x) + 1 (α(x, x) is required[|x| − lower]).
     const indexPrefix = sizeX - required[sizeX - lower] + 1;
     for (let i = 0; i < indexPrefix; i++) {
-      const e = ENTRY * listEnd[data[x0 + i]]++;
+      const e = stride * listEnd[data[x0 + i]]++;
       entries[e + SIZE] = sizeX;
       entries[e + SET] = k;
       entries[e + POSITION] = i;

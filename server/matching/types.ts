@@ -1,10 +1,14 @@
 /** Types shared by the join, the oracle and their callers. */
 
-/** The join methods, from the oracle to the fastest; all return the same pairs ('auto' adds the bitmap filter to 'position' in the self-join). */
-export type Algorithm = 'brute' | 'length' | 'prefix' | 'position' | 'auto';
+/**
+ * The join methods, from the oracle to the most filtered; all return the same pairs. 'bitmap'
+ * adds the bitmap filter to 'position' (self-join only; joinAgainst treats it as 'position');
+ * 'auto' picks the fastest for the collection's size.
+ */
+export type Algorithm = 'brute' | 'length' | 'prefix' | 'position' | 'bitmap' | 'auto';
 
 /** Every method, in order of increasing filtering (for `--algorithm` and the benchmark). */
-export const ALGORITHMS: readonly Algorithm[] = ['brute', 'length', 'prefix', 'position', 'auto'];
+export const ALGORITHMS: readonly Algorithm[] = ['brute', 'length', 'prefix', 'position', 'bitmap', 'auto'];
 
 /**
  * A pair of sets that reaches the threshold. Self-join: a < b, both index the input. joinAgainst:
