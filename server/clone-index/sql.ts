@@ -36,32 +36,37 @@ export function intArrayLiteral(values: ArrayLike<number>): string {
  * @throws when the text is not such an array
  */
 export function parseIntArray(text: string): Int32Array {
-  if (text.charCodeAt(0) !== 123 || text.charCodeAt(text.length - 1) !== 125) {
+  const n = text.length;
+  if (text.charCodeAt(0) !== 123 || text.charCodeAt(n - 1) !== 125) {
     throw new Error(`not an integer array literal: "${text.slice(0, 40)}"`);
   }
-  if (text.length === 2) return new Int32Array(0);
+  if (n === 2) return new Int32Array(0);
+  // indexOf runs natively: counting commas with it is several times faster than a charCodeAt loop
   let count = 1;
-  for (let i = 1; i < text.length - 1; i++) if (text.charCodeAt(i) === 44) count++;
+  for (let at = text.indexOf(',', 1); at >= 0; at = text.indexOf(',', at + 1)) count++;
   const out = new Int32Array(count);
   let k = 0;
-  let value = 0;
-  let sign = 1;
-  let digits = 0;
-  for (let i = 1; i < text.length; i++) {
-    const c = text.charCodeAt(i);
-    if (c >= 48 && c <= 57) {
+  let i = 1;
+  // one element per turn: optional sign, at least one digit, then ',' or the closing brace at the end
+  while (i < n) {
+    let c = text.charCodeAt(i);
+    const negative = c === 45;
+    if (negative) c = text.charCodeAt(++i);
+    let value = c - 48;
+    if (!(value >= 0 && value <= 9)) return badElement(text, i);
+    c = text.charCodeAt(++i);
+    while (c >= 48 && c <= 57) {
       value = value * 10 + (c - 48);
-      digits++;
-    } else if (c === 45 && digits === 0 && sign === 1) {
-      sign = -1;
-    } else if ((c === 44 || c === 125) && digits > 0) {
-      out[k++] = sign * value;
-      value = 0;
-      sign = 1;
-      digits = 0;
-    } else {
-      throw new Error(`not an integer array literal: unexpected "${text[i]}" at ${i} in "${text.slice(0, 40)}"`);
+      c = text.charCodeAt(++i);
     }
+    if (c !== 44 && !(c === 125 && i === n - 1)) return badElement(text, i);
+    if (c === 44 && i === n - 2) return badElement(text, i + 1);
+    out[k++] = negative ? -value : value;
+    i++;
   }
   return out;
+}
+
+function badElement(text: string, i: number): never {
+  throw new Error(`not an integer array literal: unexpected "${text[i]}" at ${i} in "${text.slice(0, 40)}"`);
 }
