@@ -118,11 +118,11 @@ export function joinAgainst(
 /**
  * From how many ids in all (the sum of the set sizes) 'auto' uses the bitmap filter. Below it
  * the candidates' ids mostly sit in the cache, a merge that fails is cheap, and the filter's
- * per-entry cost does not pay back. Measured with server/bench/join.ts on this 2-core machine
- * (CPU time, bitmap against position): 10M ids (100k sets) +25%, 30M ids (300k sets) even,
- * 100M ids (1M sets) −25%.
+ * per-entry cost does not pay back. Measured on the benchmark's collections (server/bench/join.ts)
+ * on this 2-core machine, CPU time of bitmap against position: 10M ids (100k sets) +25%, 30M ids
+ * (300k sets) from −8% to +30% over four runs, 100M ids (1M sets) −25%.
  */
-export const BITMAP_MIN_IDS = 32_000_000;
+export const BITMAP_MIN_IDS = 50_000_000;
 
 function totalIds(sets: readonly Int32Array[]): number {
   let total = 0;
