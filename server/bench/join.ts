@@ -24,6 +24,13 @@ import { parseThreshold } from '../matching/threshold';
  * - sizes log-normal (median 80 shingles, long tail, 20..3000), like functions of ≥ 50 tokens;
  * - planted near-duplicates: 10% of the sets copy an earlier set and then drop or replace 0–15%
  *   of its ids, which puts many pairs just above and just below 0.8.
+ * Where it is easier or harder than real code (checked against `--real` on typescript/lib,
+ * react-dom/cjs, sequelize/lib and zod: 8,573 functions, 244 shingles a set on average, 47
+ * candidates and 6 results a set): real sets are larger (a function of ≥ 50 tokens has ≥ 48
+ * 3-shingles, where this allows 20) and real code has far more near copies; the table's
+ * quantisation caps the vocabulary (at a million sets the rarest id is in ~50 sets), which makes
+ * the prefix lists longer than a growing real vocabulary would. Left as it was, so that figures
+ * stay comparable from one change to the next.
  */
 
 const DEFAULT_SIZES = [10_000, 20_000, 100_000, 1_000_000];

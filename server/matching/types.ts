@@ -45,7 +45,7 @@ export interface JoinOptions {
 
 /** Milliseconds per phase, added to like JoinStats. */
 export interface JoinProfile {
-  /** Building the inverted index of prefixes. */
+  /** Building the inverted index of prefixes (self-join: packing the sets, list offsets, appending each set after its probe). */
   indexMs: number;
   /** Walking the prefix lists: counting, length and position filters. */
   probeMs: number;
