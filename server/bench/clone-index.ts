@@ -10,6 +10,7 @@ import { migrateUp } from '../db/migrate';
 import { createDatabaseIfMissing, dropDatabase, ensureDatabaseServer } from '../db/postgres';
 import { loadConfig } from '../config';
 import { parseThreshold } from '../matching/threshold';
+import { random, RELABEL, VOCABULARY, ZIPF_TABLE, zipfTable } from './synthetic';
 
 /**
  * `npm run bench:index [-- --sizes 200000,1000000 --keep --seed 7 --queries 300 --time-limit 1140]`: the prefix index
@@ -45,44 +46,12 @@ const FIND_THRESHOLD = parseThreshold('0.8');
 /** Time kept for the measurements after the last load (the 10k batch and the find-copies queries). */
 const MEASURE_RESERVE_MS = 150_000;
 
-const VOCABULARY = 1 << 20;
-const ZIPF_TABLE = 1 << 21;
-const RELABEL = 0x9e3779b1;
-
-/** mulberry32: small, fast and seedable. */
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let x = a;
-    x = Math.imul(x ^ (x >>> 15), x | 1);
-    x ^= x + Math.imul(x ^ (x >>> 7), x | 61);
-    return ((x ^ (x >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
 /** A per-item seed: the same (seed, salt, i) always gives the same stream. */
 function mix(seed: number, salt: number, i: number): number {
   let h = Math.imul(seed ^ 0x85ebca6b, 0xc2b2ae35) ^ Math.imul(salt + 1, 0x27d4eb2f) ^ Math.imul(i + 1, 0x165667b1);
   h = Math.imul(h ^ (h >>> 16), 0x85ebca6b);
   h = Math.imul(h ^ (h >>> 13), 0xc2b2ae35);
   return (h ^ (h >>> 16)) >>> 0;
-}
-
-/** Token r fills a share of the table proportional to 1/(r+1): a uniform index into it is a Zipf draw. */
-function zipfTable(): Int32Array {
-  let harmonic = 0;
-  for (let r = 0; r < VOCABULARY; r++) harmonic += 1 / (r + 1);
-  const table = new Int32Array(ZIPF_TABLE);
-  let filled = 0;
-  let cumulative = 0;
-  for (let r = 0; r < VOCABULARY && filled < ZIPF_TABLE; r++) {
-    cumulative += 1 / (r + 1) / harmonic;
-    const until = Math.min(ZIPF_TABLE, Math.round(cumulative * ZIPF_TABLE));
-    for (; filled < until; filled++) table[filled] = r;
-  }
-  for (; filled < ZIPF_TABLE; filled++) table[filled] = VOCABULARY - 1 - (filled % 1024);
-  return table;
 }
 
 type Kind = 'original' | 'near' | 'exact';

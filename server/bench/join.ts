@@ -7,6 +7,7 @@ import { readFolder } from '../ingest/folder';
 import { newJoinStats, selfJoin, type Algorithm, type JoinProfile } from '../matching/join';
 import { rankIntegerSets, rankShingles } from '../matching/order';
 import { parseThreshold } from '../matching/threshold';
+import { random, RELABEL, VOCABULARY, ZIPF_TABLE, zipfTable } from './synthetic';
 
 /**
  * `npm run bench:join [-- --sizes 10000,20000 --threshold 0.8 --seed 7 --methods prefix,auto]`: the
@@ -37,44 +38,6 @@ const DEFAULT_SIZES = [10_000, 20_000, 100_000, 1_000_000];
 /** Beyond these sizes a method takes minutes (it is quadratic in the sets of similar size). */
 const QUADRATIC_LIMIT = 20_000;
 const METHODS: Algorithm[] = ['brute', 'length', 'prefix', 'position', 'bitmap', 'auto'];
-
-const VOCABULARY = 1 << 20;
-const ZIPF_TABLE = 1 << 21;
-/** Odd, so multiplying by it modulo 2^20 is a bijection: a cheap shuffle of ids against frequency. */
-const RELABEL = 0x9e3779b1;
-
-/** mulberry32: small, fast and seedable; quality is ample for test data. */
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let x = a;
-    x = Math.imul(x ^ (x >>> 15), x | 1);
-    x ^= x + Math.imul(x ^ (x >>> 7), x | 61);
-    return ((x ^ (x >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-/**
- * A lookup table for Zipf draws: token r fills a share of the table proportional to 1/(r+1), so a
- * uniform index into it is a Zipf draw. Quantised to 1/2^21: past rank ~150k each id gets one slot
- * or none, which thins the rare tail but keeps its total weight.
- */
-function zipfTable(): Int32Array {
-  let harmonic = 0;
-  for (let r = 0; r < VOCABULARY; r++) harmonic += 1 / (r + 1);
-  const table = new Int32Array(ZIPF_TABLE);
-  let filled = 0;
-  let cumulative = 0;
-  for (let r = 0; r < VOCABULARY && filled < ZIPF_TABLE; r++) {
-    cumulative += 1 / (r + 1) / harmonic;
-    const until = Math.min(ZIPF_TABLE, Math.round(cumulative * ZIPF_TABLE));
-    for (; filled < until; filled++) table[filled] = r;
-  }
-  // Rounding can leave a few slots at the end: give them to the rarest ids.
-  for (; filled < ZIPF_TABLE; filled++) table[filled] = VOCABULARY - 1 - (filled % 1024);
-  return table;
-}
 
 /**
  * The synthetic collection: `count` sets of token ids (not yet ranked). Token ids are scrambled
