@@ -1,4 +1,5 @@
 import { buildFragments, resolveOptions, type FragmentSpan } from './fragments';
+import { splitLines } from './lines';
 import { analyzerForLanguage, analyzerForPath, extensionOf, LANGUAGES } from './languages';
 import type { AnalyzeOptions, FileAnalysis, Fragment } from './types';
 
@@ -57,11 +58,11 @@ export function languageForPath(path: string): string | undefined {
 
 /** Removes the indentation every non-blank line shares, so a body pasted from deep inside a file parses. */
 function dedent(text: string): string {
-  const lines = text.split(/\r\n|\r|\n/);
+  const lines = splitLines(text);
   let common: string | undefined;
   for (const line of lines) {
     if (line.trim() === '') continue;
-    const indent = /^[ \t]*/.exec(line)![0];
+    const indent = /^[ \t]*/.exec(line)?.[0] ?? '';
     if (common === undefined || !indent.startsWith(common)) {
       let i = 0;
       while (common !== undefined && i < common.length && i < indent.length && common[i] === indent[i]) i++;
@@ -114,8 +115,8 @@ function tokensInOutermost(spans: readonly FragmentSpan[], starts: readonly numb
   for (const span of sorted) {
     if (span.end <= coveredUntil) continue;
     const from = Math.max(span.start, coveredUntil);
-    while (i < starts.length && starts[i]! < from) i++;
-    while (i < starts.length && starts[i]! < span.end) {
+    while (i < starts.length && starts[i] < from) i++;
+    while (i < starts.length && starts[i] < span.end) {
       count++;
       i++;
     }

@@ -54,14 +54,19 @@ export async function analyzeFiles(
 
   const skipped: SkippedFile[] = [];
   const tasks: AnalyzeTask[] = [];
+  const languages = new Set<string>();
   for (const file of files) {
     const { reason, text } = inspectFile(file.path, file.content, { ignore, maxFileBytes });
     if (reason !== undefined || text === undefined) {
       skipped.push({ path: file.path, reason: reason ?? 'not readable' });
-    } else if (!analyzerForPath(file.path)) {
-      skipped.push({ path: file.path, reason: noAnalyzerReason(file.path) });
     } else {
-      tasks.push({ path: file.path, text, options: analyzeOptions });
+      const language = analyzerForPath(file.path);
+      if (!language) {
+        skipped.push({ path: file.path, reason: noAnalyzerReason(file.path) });
+      } else {
+        languages.add(language.id);
+        tasks.push({ path: file.path, text, options: analyzeOptions });
+      }
     }
   }
   if (tasks.length === 0) return { files: [], skipped };
@@ -79,8 +84,8 @@ export async function analyzeFiles(
   try {
     // Load the analyzers in every thread first, so that a file's time limit measures its own
     // parse and not the thread's start-up.
-    const languages = [...new Set(tasks.map((task) => analyzerForPath(task.path)!.id))];
-    await Promise.all(Array.from({ length: threads }, () => pool.run({ warm: languages })));
+    const warm = [...languages];
+    await Promise.all(Array.from({ length: threads }, () => pool.run({ warm })));
     // Never more files in flight than threads: a file's clock starts when a thread takes it,
     // not while it waits in the queue behind others.
     const results: FileAnalysis[] = new Array(tasks.length);
@@ -88,7 +93,7 @@ export async function analyzeFiles(
     const lane = async () => {
       while (next < tasks.length) {
         const i = next++;
-        results[i] = await runOne(pool, tasks[i]!, timeoutMs);
+        results[i] = await runOne(pool, tasks[i], timeoutMs);
       }
     };
     await Promise.all(Array.from({ length: threads }, lane));

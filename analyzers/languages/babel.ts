@@ -181,8 +181,7 @@ export function analyzeWithBabel(
   const classes: Array<string | undefined> = [undefined];
   const objects: Array<string | undefined> = [undefined];
 
-  while (nodes.length > 0) {
-    const node = nodes.pop()!;
+  for (let node = nodes.pop(); node !== undefined; node = nodes.pop()) {
     const parent = parents.pop();
     const className = classes.pop();
     const objectName = objects.pop();
@@ -225,7 +224,7 @@ export function analyzeWithBabel(
     // spans are sorted later, but it keeps the traversal predictable when debugging).
     const keys = CHILD_KEYS.get(node.type) ?? allChildKeys(node);
     for (let k = keys.length - 1; k >= 0; k--) {
-      const value = node[keys[k]!];
+      const value = node[keys[k]];
       if (Array.isArray(value)) {
         for (let i = value.length - 1; i >= 0; i--) {
           const item: unknown = value[i];
@@ -253,8 +252,8 @@ export function analyzeWithBabel(
     if (typeof token.type === 'string') continue; // CommentLine / CommentBlock
     const label = token.type.label;
     if (label === 'eof') continue;
-    while (d < dropped.length && dropped[d]![0] <= token.start) {
-      dropEnd = Math.max(dropEnd, dropped[d]![1]);
+    while (d < dropped.length && dropped[d][0] <= token.start) {
+      dropEnd = Math.max(dropEnd, dropped[d][1]);
       d++;
     }
     if (token.start < dropEnd) continue;

@@ -73,7 +73,11 @@ interface Scope {
 /** Joins the contiguous run of class names on top of the scope stack: `Outer.Inner`. */
 function ownerOf(scopes: readonly Scope[]): string | undefined {
   const names: string[] = [];
-  for (let i = scopes.length - 1; i >= 0 && scopes[i]!.className !== undefined; i--) names.unshift(scopes[i]!.className!);
+  for (let i = scopes.length - 1; i >= 0; i--) {
+    const name = scopes[i].className;
+    if (name === undefined) break;
+    names.unshift(name);
+  }
   return names.length > 0 ? names.join('.') : undefined;
 }
 
@@ -92,13 +96,13 @@ export async function analyzeWithTreeSitter(spec: TreeSitterSpec, text: string):
       const type = cursor.nodeType;
       const start = cursor.startIndex;
       const end = cursor.endIndex;
-      while (scopes.length > 0 && scopes[scopes.length - 1]!.end <= start && end > start) scopes.pop();
+      while (scopes.length > 0 && scopes[scopes.length - 1].end <= start && end > start) scopes.pop();
       let descend = true;
       if (type === 'ERROR') errors++;
       if (spec.comments.has(type)) {
         descend = false;
       } else if (Object.hasOwn(spec.literals, type)) {
-        if (end > start) pushToken(tokens, start, end, text.slice(start, end), spec.literals[type]!);
+        if (end > start) pushToken(tokens, start, end, text.slice(start, end), spec.literals[type]);
         descend = false;
       } else if (spec.functions.has(type) && cursor.nodeIsNamed) {
         // (named only: Python's `lambda` keyword is a leaf of the same type as the lambda node)
@@ -111,7 +115,7 @@ export async function analyzeWithTreeSitter(spec: TreeSitterSpec, text: string):
           scopes.push({ end, className: undefined });
         }
       } else if (Object.hasOwn(spec.containers, type) && cursor.nodeIsNamed) {
-        const name = spec.containers[type]!(cursor.currentNode) ?? '<anonymous>';
+        const name = spec.containers[type](cursor.currentNode) ?? '<anonymous>';
         scopes.push({ end, className: name });
       }
       if (descend && !cursor.gotoFirstChild()) {
