@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
-import { DEFAULT_REPOSITORY_SETTINGS } from '../shared/constants';
+import { ANALYSIS_LIMITS, DEFAULT_REPOSITORY_SETTINGS } from '../shared/constants';
+import { checkFragmentWork } from './limits';
 import { LineIndex } from './lines';
 import { WindowTable } from './shingle-windows';
 import { lowerBound, tokenForm, type TokenStream } from './tokens';
@@ -82,30 +83,37 @@ class JoinedForms {
  * Attaches tokens, identities and shingle sets to spans. A span takes every token that lies
  * inside it, nested functions included (see languages/babel.ts on nesting), and records them as
  * the index range [tokenStart, tokenEnd) of `tokens`; spans with fewer than `minTokens` tokens
- * are dropped (the others keep their indexes into the whole stream). Fragments come out in source order (outer first when two
- * start together).
+ * are dropped (the others keep their indexes into the whole stream). Fragments come out in source
+ * order (outer first when two start together).
+ * @throws AnalysisLimitError when more than `maxFragments` fragments are kept, or they hold more
+ * than ANALYSIS_LIMITS.maxNestedTokenFactor times the file's tokens together
  */
 export function buildFragments(
   text: string,
   tokens: TokenStream,
   spans: readonly FragmentSpan[],
   options: ResolvedOptions,
+  maxFragments: number = ANALYSIS_LIMITS.maxFragmentsPerFile,
 ): Fragment[] {
   const sorted = [...spans].sort((a, b) => a.start - b.start || b.end - a.end);
   // Token ranges first: forms, hashes and windows only need to cover the fragments that are kept.
   const kept: Array<{ span: FragmentSpan; from: number; to: number }> = [];
   let lo = tokens.texts.length;
   let hi = 0;
+  let keptTokens = 0;
   for (const span of sorted) {
     const from = lowerBound(tokens.starts, span.start);
     const to = lowerBound(tokens.starts, span.end);
     const count = to - from;
     if (count === 0 || count < options.minTokens) continue;
     kept.push({ span, from, to });
+    keptTokens += count;
     if (from < lo) lo = from;
     if (to > hi) hi = to;
   }
   if (kept.length === 0) return [];
+  // Before any per-fragment work: hashing and shingling cost what the fragments hold together.
+  checkFragmentWork(kept.length, keptTokens, tokens.texts.length, maxFragments);
   const lines = new LineIndex(text);
   // Indexed by token position; only [lo, hi) is filled.
   const raw: string[] = new Array(hi);

@@ -18,7 +18,8 @@ export interface AnalyzeFilesOptions extends AnalyzeOptions, SkipOptions {
 /** Default per-file time limit. A 1 MiB file parses in well under a second. */
 export const DEFAULT_TIMEOUT_MS = 20_000;
 
-const WORKER_URL = new URL('./worker.mjs', import.meta.url);
+/** The pool threads' entry (worker.mjs), shared by analyzeFiles and the snippet pool. */
+export const WORKER_URL = new URL('./worker.mjs', import.meta.url);
 
 /**
  * V8 heap limits of a pool thread. The young generation is larger than V8's default (about 48 MB,

@@ -2,6 +2,7 @@ import fs from 'node:fs';
 import { createRequire } from 'node:module';
 import { Language, Parser, type Node } from 'web-tree-sitter';
 import type { FragmentSpan, ResolvedOptions } from '../fragments';
+import { checkNestingDepth } from '../limits';
 import { emptyTokenStream, pushToken, type TokenClass } from '../tokens';
 import type { FragmentKind } from '../types';
 import type { LanguageAnalysis, LanguageAnalyzer } from './language';
@@ -113,10 +114,12 @@ export async function analyzeWithTreeSitter(spec: TreeSitterSpec, text: string):
         if (info) {
           spans.push({ name: info.name, kind: info.kind, start: info.start ?? start, end });
           scopes.push({ end, className: undefined });
+          checkNestingDepth(scopes.length);
         }
       } else if (Object.hasOwn(spec.containers, type) && cursor.nodeIsNamed) {
         const name = spec.containers[type](cursor.currentNode) ?? '<anonymous>';
         scopes.push({ end, className: name });
+        checkNestingDepth(scopes.length);
       }
       if (descend && !cursor.gotoFirstChild()) {
         // A leaf. Zero-width leaves are tokens the parser invented to recover (MISSING) or
