@@ -4,7 +4,7 @@ import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import { analyzeFiles } from '../../analyzers';
 import { readFolder } from '../ingest/folder';
-import { newJoinStats, selfJoin, type Algorithm, type JoinProfile } from '../matching/join';
+import { newJoinStats, selfJoin, type JoinMethod, type JoinProfile } from '../matching/join';
 import { rankIntegerSets, rankShingles } from '../matching/order';
 import { parseThreshold } from '../matching/threshold';
 import { random, RELABEL, VOCABULARY, ZIPF_TABLE, zipfTable } from './synthetic';
@@ -37,7 +37,7 @@ import { random, RELABEL, VOCABULARY, ZIPF_TABLE, zipfTable } from './synthetic'
 const DEFAULT_SIZES = [10_000, 20_000, 100_000, 1_000_000];
 /** Beyond these sizes a method takes minutes (it is quadratic in the sets of similar size). */
 const QUADRATIC_LIMIT = 20_000;
-const METHODS: Algorithm[] = ['brute', 'length', 'prefix', 'position', 'bitmap', 'auto'];
+const METHODS: JoinMethod[] = ['brute', 'length', 'prefix', 'position', 'bitmap', 'auto'];
 
 /**
  * The synthetic collection: `count` sets of token ids (not yet ranked). Token ids are scrambled
@@ -81,7 +81,7 @@ function generateCollection(count: number, seed: number): Int32Array[] {
 
 interface CellResult {
   size: number;
-  algorithm: Algorithm;
+  method: JoinMethod;
   generateMs: number;
   rankMs: number;
   joinMs: number;
@@ -97,7 +97,7 @@ interface CellResult {
 }
 
 /** One cell, in this process: generate (or analyse real folders), rank, join; print one JSON line. */
-async function runCell(size: number, algorithm: Algorithm, threshold: string, seed: number, real?: string[]): Promise<CellResult> {
+async function runCell(size: number, method: JoinMethod, threshold: string, seed: number, real?: string[]): Promise<CellResult> {
   let start = performance.now();
   let ranked: Int32Array[];
   let generateMs: number;
@@ -124,12 +124,12 @@ async function runCell(size: number, algorithm: Algorithm, threshold: string, se
   const profile: JoinProfile = { indexMs: 0, probeMs: 0, verifyMs: 0 };
   start = performance.now();
   const cpu = process.cpuUsage();
-  selfJoin(ranked, parseThreshold(threshold), { algorithm, stats, profile: algorithm === 'brute' ? undefined : profile });
+  selfJoin(ranked, parseThreshold(threshold), { method, stats, profile: method === 'brute' ? undefined : profile });
   const joinMs = performance.now() - start;
   const { user, system } = process.cpuUsage(cpu);
   return {
     size,
-    algorithm,
+    method,
     generateMs,
     rankMs,
     joinMs,
@@ -182,25 +182,25 @@ async function main(): Promise<void> {
   const threshold = values.threshold!;
   if (values.child) {
     const size = Number(values.sizes);
-    const algorithm = values.methods as Algorithm;
-    process.stdout.write(`${JSON.stringify(await runCell(size, algorithm, threshold, seed, real))}\n`);
+    const method = values.methods as JoinMethod;
+    process.stdout.write(`${JSON.stringify(await runCell(size, method, threshold, seed, real))}\n`);
     return;
   }
   // With --real the collection is the analysed folders: one "size", whatever it turns out to be.
   const sizes = real ? [0] : values.sizes ? values.sizes.split(',').map(Number) : DEFAULT_SIZES;
-  const methods = values.methods ? (values.methods.split(',') as Algorithm[]) : METHODS;
+  const methods = values.methods ? (values.methods.split(',') as JoinMethod[]) : METHODS;
   const quadraticLimit = values['quadratic-limit'] ? Number(values['quadratic-limit']) : QUADRATIC_LIMIT;
   const self = fileURLToPath(import.meta.url);
   const rows: CellResult[] = [];
   const skipped: string[] = [];
   process.stderr.write(`join benchmark: threshold ${threshold}, seed ${seed}, sizes ${sizes.join(', ')}\n`);
   for (const size of sizes) {
-    for (const algorithm of methods) {
-      if (!real && (algorithm === 'brute' || algorithm === 'length') && size > quadraticLimit) {
-        skipped.push(`${algorithm} at ${formatCount(size)}`);
+    for (const method of methods) {
+      if (!real && (method === 'brute' || method === 'length') && size > quadraticLimit) {
+        skipped.push(`${method} at ${formatCount(size)}`);
         continue;
       }
-      process.stderr.write(`  ${formatCount(size)} sets, ${algorithm}… `);
+      process.stderr.write(`  ${formatCount(size)} sets, ${method}… `);
       const child = spawnSync(
         process.execPath,
         [
@@ -212,7 +212,7 @@ async function main(): Promise<void> {
           '--sizes',
           String(size),
           '--methods',
-          algorithm,
+          method,
           '--threshold',
           threshold,
           '--seed',
@@ -242,18 +242,18 @@ async function main(): Promise<void> {
   out.push('| sets | shingles | method | join time | join CPU | vs brute | candidates | verified | results | peak RSS | RSS before join | index / probe / verify |');
   out.push('| ---: | ---: | --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | --- |');
   for (const row of rows) {
-    const brute = rows.find((r) => r.size === row.size && r.algorithm === 'brute');
-    const speedup = brute && row.algorithm !== 'brute' ? `${(brute.joinMs / row.joinMs).toFixed(0)}×` : '';
+    const brute = rows.find((r) => r.size === row.size && r.method === 'brute');
+    const speedup = brute && row.method !== 'brute' ? `${(brute.joinMs / row.joinMs).toFixed(0)}×` : '';
     const { indexMs, probeMs, verifyMs } = row.profile;
     const phases = indexMs + probeMs + verifyMs > 0 ? `${formatMs(indexMs)} / ${formatMs(probeMs)} / ${formatMs(verifyMs)}` : '';
     out.push(
-      `| ${formatCount(row.size)} | ${formatCount(row.shingles)} | ${row.algorithm} | ${formatMs(row.joinMs)} | ${formatMs(row.joinCpuMs)} | ${speedup} | ${formatCount(row.candidates)} | ` +
+      `| ${formatCount(row.size)} | ${formatCount(row.shingles)} | ${row.method} | ${formatMs(row.joinMs)} | ${formatMs(row.joinCpuMs)} | ${speedup} | ${formatCount(row.candidates)} | ` +
         `${formatCount(row.verified)} | ${formatCount(row.results)} | ${row.peakRssMb.toFixed(0)} MB | ${row.beforeJoinRssMb.toFixed(0)} MB | ${phases} |`,
     );
   }
   out.push('');
   if (skipped.length > 0) out.push(`Not run (quadratic, minutes or more past ${formatCount(quadraticLimit)} sets): ${skipped.join(', ')}.`);
-  const setup = rows.filter((r) => r.algorithm === 'auto').map((r) => `${formatCount(r.size)}: generate ${formatMs(r.generateMs)}, rank ${formatMs(r.rankMs)}`);
+  const setup = rows.filter((r) => r.method === 'auto').map((r) => `${formatCount(r.size)}: generate ${formatMs(r.generateMs)}, rank ${formatMs(r.rankMs)}`);
   if (setup.length > 0) out.push(`Outside the join time: ${setup.join('; ')}${real ? ' (generate = read and analyse the folders)' : ''}.`);
   process.stdout.write(`${out.join('\n')}\n`);
 }
