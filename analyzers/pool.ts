@@ -15,7 +15,7 @@ export interface AnalyzeFilesOptions extends AnalyzeOptions, SkipOptions {
   timeoutMs?: number;
 }
 
-/** Default per-file time limit. A 1 MiB file parses in well under a second. */
+/** Default per-file time limit: far above what a file under the size cap needs (bench:analyze). */
 export const DEFAULT_TIMEOUT_MS = 20_000;
 
 /** The pool threads' entry (worker.mjs), shared by analyzeFiles and the snippet pool. */
@@ -25,8 +25,8 @@ export const WORKER_URL = new URL('./worker.mjs', import.meta.url);
  * V8 heap limits of a pool thread. The young generation is larger than V8's default (about 48 MB,
  * 16 MB semi-spaces): a parse allocates a whole syntax tree and token list that live until the
  * file is done, and with small semi-spaces most of it is copied by several scavenges before it
- * dies. 192 MB (64 MB semi-spaces) measured about a tenth faster on the bench corpus; the space is
- * only taken when a file needs it.
+ * dies; the README's Measured section has what the larger one saved. The space is only taken
+ * when a file needs it.
  *
  * @example new Worker(url, { resourceLimits: POOL_RESOURCE_LIMITS })
  */

@@ -7,6 +7,7 @@ import { readFolder } from '../ingest/folder';
 import { newJoinStats, selfJoin, type JoinMethod, type JoinProfile } from '../matching/join';
 import { rankIntegerSets, rankShingles } from '../matching/order';
 import { parseThreshold } from '../matching/threshold';
+import { formatCount, formatMs } from './format';
 import { random, RELABEL, VOCABULARY, ZIPF_TABLE, zipfTable } from './synthetic';
 
 /**
@@ -103,7 +104,7 @@ async function runCell(size: number, method: JoinMethod, threshold: string, seed
   let generateMs: number;
   let rankMs: number;
   if (real) {
-    const shingleSets = await analyseFolders(real);
+    const shingleSets = await analyzeFolders(real);
     generateMs = performance.now() - start;
     start = performance.now();
     ranked = rankShingles(shingleSets).ranked;
@@ -146,22 +147,14 @@ async function runCell(size: number, method: JoinMethod, threshold: string, seed
  * Real shingle sets: the functions (≥ 50 tokens, 3-shingles) of the given folders, analysed by
  * the analyzers exactly as `doublet scan` does.
  */
-async function analyseFolders(folders: string[]): Promise<string[][]> {
+async function analyzeFolders(folders: string[]): Promise<string[][]> {
   const sets: string[][] = [];
   for (const folder of folders) {
     const { files } = await readFolder(folder);
-    const analysed = await analyzeFiles(files, { minTokens: 50, shingleSize: 3 });
-    for (const file of analysed.files) for (const fragment of file.fragments) sets.push(fragment.shingles);
+    const analyzed = await analyzeFiles(files, { minTokens: 50, shingleSize: 3 });
+    for (const file of analyzed.files) for (const fragment of file.fragments) sets.push(fragment.shingles);
   }
   return sets;
-}
-
-function formatMs(ms: number): string {
-  return ms >= 10_000 ? `${(ms / 1000).toFixed(1)} s` : ms >= 1000 ? `${(ms / 1000).toFixed(2)} s` : `${ms.toFixed(0)} ms`;
-}
-
-function formatCount(n: number): string {
-  return n.toLocaleString('en-US');
 }
 
 async function main(): Promise<void> {
