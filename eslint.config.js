@@ -45,5 +45,13 @@ export default defineConfig(
   { files: ['**/*.{ts,tsx,js,mjs}'], ignores: ['web/**'], languageOptions: { globals: globals.node } },
   // The client runs in the browser; its tests (jsdom) and the browser tests (page callbacks) see both.
   { files: ['web/**/*.{ts,tsx}'], languageOptions: { globals: globals.browser } },
+  {
+    files: ['web/**/*.{ts,tsx}', 'tests/web/**/*.{ts,tsx}'],
+    rules: {
+      'no-restricted-imports': ['error', {
+        patterns: [{ regex: '^\\.\\./', message: 'Import through @/ (web/src) or @shared/ (shared) instead of a parent path.' }],
+      }],
+    },
+  },
   { files: ['tests/web/**', 'tests/e2e/**'], languageOptions: { globals: globals.browser } },
 );

@@ -1,8 +1,8 @@
 // @vitest-environment jsdom
 import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import { afterEach, describe, expect, it } from 'vitest';
-import type { CloneClassDetailDTO, CloneClassMemberDTO } from '../../../../shared/api/snapshots';
-import { ClassMembers } from '../../../../web/src/features/clone-classes/components/class-members';
+import type { CloneClassDetailDTO, CloneClassMemberDTO } from '@shared/api/snapshots';
+import { ClassMembers } from '@/features/clone-classes/components/class-members';
 
 afterEach(cleanup);
 

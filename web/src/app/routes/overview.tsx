@@ -1,14 +1,14 @@
 import { Link } from 'react-router-dom';
-import type { RepositoryDTO } from '../../../../shared/api/repositories';
-import { actionsOf } from '../../../../shared/permissions';
-import { ROLE_LABELS } from '../../../../shared/roles';
-import { QueryState } from '../../components/data-state';
-import { PageHeader } from '../../components/page-header';
-import { Panel } from '../../components/panel';
-import { formatPercent } from '../../lib/format';
-import { useSession } from '../../features/auth/api/get-session';
-import { useRepositories } from '../../features/repositories/api/get-repositories';
-import { TrendChart } from '../../features/repositories/components/trend-chart';
+import type { RepositoryDTO } from '@shared/api/repositories';
+import { actionsOf } from '@shared/permissions';
+import { ROLE_LABELS } from '@shared/roles';
+import { QueryState } from '@/components/data-state';
+import { PageHeader } from '@/components/page-header';
+import { Panel } from '@/components/panel';
+import { formatPercent } from '@/lib/format';
+import { useSession } from '@/features/auth/api/get-session';
+import { useRepositories } from '@/features/repositories/api/get-repositories';
+import { TrendChart } from '@/features/repositories/components/trend-chart';
 
 interface Figure {
   label: string;
