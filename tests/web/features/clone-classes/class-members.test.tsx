@@ -7,9 +7,10 @@ import { ClassMembers } from '@/features/clone-classes/components/class-members'
 afterEach(cleanup);
 
 // Invented members: three copies of a wagon-weight check in a made-up yard codebase.
+let nextFragmentId = 1;
 function member(path: string, name: string, changed: boolean, startLine = 10): CloneClassMemberDTO {
   const code = [`function ${name}(wagon) {`, '  return wagon.tare + wagon.load;', '}'].join('\n');
-  return { fragmentId: path.length, path, name, kind: 'function', startLine, endLine: startLine + 2, tokens: 60, changed, code };
+  return { fragmentId: nextFragmentId++, path, name, kind: 'function', startLine, endLine: startLine + 2, tokens: 60, changed, code };
 }
 
 function detail(members: CloneClassMemberDTO[], pairs: CloneClassDetailDTO['pairs']): CloneClassDetailDTO {

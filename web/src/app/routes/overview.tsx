@@ -52,7 +52,7 @@ export function OverviewRoute() {
   if (!user) return null;
   const list = repositories.data?.repositories ?? [];
   const figures = repositories.data ? figuresOf(list) : null;
-  // The trend of the first repository (by name) that has a ready snapshot.
+  // The list comes sorted by name, so the featured trend stays the same from one visit to the next.
   const featured = list.find((r) => r.latestSnapshot !== null);
   return (
     <div className="max-w-5xl">
