@@ -25,7 +25,7 @@ import type { JoinProfile, JoinStats, SimilarPair } from './types';
  * Probe of x, at each prefix position i:
  * - length filter: sizes only grow along the processing order, so each list's too-small head
  *   (|y| < ⌈t·|x|⌉) is skipped once and for all by moving its start;
- * - position filter (DESIGN.md): on a shared id at positions i in x and j in y, with c shared ids
+ * - position filter (DEVELOPERS.md): on a shared id at positions i in x and j in y, with c shared ids
  *   counted before it, the overlap is at most c + 1 + min(|x| − i − 1, |y| − j − 1); below
  *   α(x, y) the pair is dropped for good (count −1). c counts every id x and y share before
  *   positions i and j: those of x precede i in x's probe prefix and those of y precede j, inside
