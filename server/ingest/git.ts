@@ -50,6 +50,14 @@ function refuse(input: string, why: string): IngestError {
   return new IngestError('unsafe_remote', `The git remote ${JSON.stringify(redactCredentials(input).slice(0, 300))} was refused: ${why}.`);
 }
 
+function hasControlCharacter(text: string): boolean {
+  for (let i = 0; i < text.length; i++) {
+    const code = text.charCodeAt(i);
+    if (code < 0x20 || code === 0x7f) return true;
+  }
+  return false;
+}
+
 const SCP_LIKE = /^(?:([A-Za-z0-9._~-]+)@)?([A-Za-z0-9][A-Za-z0-9.-]*):(.+)$/;
 
 /**
@@ -65,7 +73,7 @@ export function parseGitRemote(input: string): GitRemote {
   const url = input.trim();
   if (url === '') throw refuse(input, 'it is empty');
   if (url.length > 2048) throw refuse(input, 'it is longer than 2048 characters');
-  if (/[\0-\x1f\x7f]/.test(url)) throw refuse(input, 'it contains control characters');
+  if (hasControlCharacter(url)) throw refuse(input, 'it contains control characters');
   if (url.startsWith('-')) throw refuse(input, 'it starts with "-", which git would read as an option');
   if (/^[A-Za-z][A-Za-z0-9+.-]*::/.test(url)) throw refuse(input, 'remote helpers ("name::address", such as ext:: and fd::) run programs');
   const display = redactCredentials(url);
@@ -181,7 +189,7 @@ function tagMatcher(pattern: string): RegExp {
  * @example (await listTags(mirror, 'v2026.*')).map((t) => t.name) // ['v2026.09', 'v2026.10']
  */
 export async function listTags(mirror: string, pattern = '*', options: GitOptions = {}): Promise<GitTag[]> {
-  if (pattern.length > 200 || /[\0-\x1f]/.test(pattern)) throw new IngestError('unsafe_remote', 'The tag pattern must be at most 200 printable characters.');
+  if (pattern.length > 200 || hasControlCharacter(pattern)) throw new IngestError('unsafe_remote', 'The tag pattern must be at most 200 printable characters.');
   const matcher = tagMatcher(pattern);
   const { timeoutSeconds } = settings(options);
   const format = '%(refname:strip=2)%00%(objecttype)%00%(objectname)%00%(*objecttype)%00%(*objectname)%00%(creatordate:unix)';

@@ -150,6 +150,7 @@ describe('parseGitRemote', () => {
       ['http://git.brackenfold.example/freight.git', /http:\/\/ is not allowed/],
       ['git://git.brackenfold.example/freight.git', /git:\/\/ is not allowed/],
       ['relative/path', /absolute local path/],
+      ['https://git.brackenfold.example/x.git\n--upload-pack=y', /control characters/],
     ];
     for (const [remote, why] of cases) {
       let error: unknown;
