@@ -247,9 +247,13 @@ export async function readTag(mirror: string, tag: string, options: TagReadOptio
     });
   });
   let timer: NodeJS.Timeout | undefined;
+  let timedOut = false;
   const silence = () => {
     clearTimeout(timer);
-    timer = setTimeout(() => child.kill('SIGKILL'), timeoutSeconds * 1000);
+    timer = setTimeout(() => {
+      timedOut = true;
+      child.kill('SIGKILL');
+    }, timeoutSeconds * 1000);
   };
   silence();
   const budget = new UnpackBudget(limits);
@@ -266,6 +270,7 @@ export async function readTag(mirror: string, tag: string, options: TagReadOptio
       throw error;
     });
     const code = await exited;
+    if (timedOut) throw new IngestError('git_failed', `git archive of tag ${JSON.stringify(tag)} was stopped after ${timeoutSeconds} s without output.`);
     if (code !== 0) throw new IngestError('git_failed', `git archive of tag ${JSON.stringify(tag)} failed: ${redactCredentials(stderr).trim() || `exit code ${code}`}`);
     const list = await buildFileList(entries ?? [], { ignore: options.ignore, maxFileBytes: limits.maxFileBytes, stripTopFolder: false });
     return { ...list, tag, commit, unpackedBytes: budget.unpackedBytes, entryCount: budget.entries };

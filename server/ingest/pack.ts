@@ -75,10 +75,16 @@ export async function packFolder(root: string, out: string, options: PackOptions
   const byPath = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
   files.sort(byPath);
   leftOut.sort((a, b) => byPath(a.path, b.path));
-  await tar.c(
-    { gzip: true, file: out, cwd: root, portable: true, mtime: new Date(0), noDirRecurse: true, follow: false, linkCache: new NoLinkCache() },
-    files,
-  );
+  try {
+    await tar.c(
+      { gzip: true, file: out, cwd: root, portable: true, mtime: new Date(0), noDirRecurse: true, follow: false, linkCache: new NoLinkCache() },
+      files,
+    );
+  } catch (error) {
+    // A half-written archive must not be mistaken for a whole one (or left behind).
+    await fs.rm(out, { force: true });
+    throw error;
+  }
   const bytes = await fs.readFile(out);
   return { files, leftOut, bytes: bytes.length, sha256: createHash('sha256').update(bytes).digest('hex') };
 }
