@@ -10,13 +10,35 @@ import { buildFileList, type FileList } from './file-list';
 import { ingestLimits, type IngestLimits } from './limits';
 import { readTarEntries } from './tar';
 
-/** A remote Doublet agreed to fetch from; `display` is safe to log, store in plain text or show. */
-export interface GitRemote {
-  kind: 'https' | 'ssh' | 'local';
-  /** What git is given; may carry credentials (`https://user:token@…`): never log it. */
-  url: string;
-  /** The same with any user name and password replaced by `***`. */
-  display: string;
+/**
+ * A remote Doublet agreed to fetch from. The URL git is given may carry credentials
+ * (`https://user:token@…`), so it is a private field: logging, printing or serialising a remote
+ * (console.log, JSON.stringify, String) shows only `display`, with the credentials as `***`.
+ */
+export class GitRemote {
+  readonly #url: string;
+
+  constructor(
+    readonly kind: 'https' | 'ssh' | 'local',
+    url: string,
+    /** The URL with any user name and password replaced by `***`: safe to log, store or show. */
+    readonly display: string,
+  ) {
+    this.#url = url;
+  }
+
+  /** The URL with its credentials, for the git command line only. */
+  urlForGit(): string {
+    return this.#url;
+  }
+
+  toJSON(): { kind: string; display: string } {
+    return { kind: this.kind, display: this.display };
+  }
+
+  toString(): string {
+    return this.display;
+  }
 }
 
 /** One release tag of a mirror. */
@@ -87,19 +109,19 @@ export function parseGitRemote(input: string): GitRemote {
     }
     if (scheme === 'file') {
       if (parsed.hostname !== '') throw refuse(input, 'a file:// URL must name a local path');
-      return { kind: 'local', url, display };
+      return new GitRemote('local', url, display);
     }
     if (scheme !== 'https' && scheme !== 'ssh') throw refuse(input, `${scheme}:// is not allowed; use https://, ssh://, user@host:path or a local path`);
     if (parsed.hostname === '' || parsed.hostname.startsWith('-')) throw refuse(input, 'the host name is missing or starts with "-"');
     if (decodeURIComponent(parsed.username).startsWith('-')) throw refuse(input, 'the user name starts with "-"');
     if (/\s/.test(url)) throw refuse(input, 'it contains white space');
-    return { kind: scheme, url, display };
+    return new GitRemote(scheme, url, display);
   }
-  if (path.isAbsolute(url)) return { kind: 'local', url, display };
+  if (path.isAbsolute(url)) return new GitRemote('local', url, display);
   const scp = SCP_LIKE.exec(url);
   if (scp && !/\s/.test(url)) {
     if (scp[3]!.startsWith('-')) throw refuse(input, 'the path starts with "-"');
-    return { kind: 'ssh', url, display };
+    return new GitRemote('ssh', url, display);
   }
   throw refuse(input, 'use https://, ssh://, user@host:path or an absolute local path');
 }
@@ -136,7 +158,7 @@ async function step<T>(what: string, remote: GitRemote | undefined, run: () => P
     return await run();
   } catch (error) {
     let message = error instanceof Error ? error.message : String(error);
-    if (remote) message = message.split(remote.url).join(remote.display);
+    if (remote) message = message.split(remote.urlForGit()).join(remote.display);
     message = redactCredentials(message).trim().slice(0, 1000);
     throw new IngestError('git_failed', `git could not ${what}${remote ? ` from ${remote.display}` : ''}: ${message}`);
   }
@@ -170,7 +192,7 @@ export async function fetchTags(remote: GitRemote, options: GitOptions = {}): Pr
     await fs.writeFile(path.join(mirror, 'info', 'attributes'), '* -export-ignore -export-subst\n');
   }
   await step('fetch tags', remote, () =>
-    git(mirror, timeoutSeconds).raw(['fetch', '--quiet', '--prune', '--no-write-fetch-head', '--depth=1', '--', remote.url, '+refs/tags/*:refs/tags/*']),
+    git(mirror, timeoutSeconds).raw(['fetch', '--quiet', '--prune', '--no-write-fetch-head', '--depth=1', '--', remote.urlForGit(), '+refs/tags/*:refs/tags/*']),
   );
   return mirror;
 }
