@@ -259,6 +259,10 @@ describe('readUploadedArchive refuses the attack corpus and leaves no file behin
     const error = await refused('locked.zip', buildZip([{ name: 'a.js', data: quote }, { name: 'secret.js', data: quote, flags: 1 }]));
     expect(error.code).toBe('encrypted_archive');
     expect(error.message).toBe('Entry "secret.js" is encrypted; Doublet reads only unencrypted archives.');
+    // The flag only in the local header (the central directory says otherwise) is caught when the entry is read.
+    const local = await refused('locked.zip', buildZip([{ name: 'a.js', data: quote, localFlags: 1 }]));
+    expect(local.code).toBe('encrypted_archive');
+    expect(local.message).toBe('Entry "a.js" is encrypted; Doublet reads only unencrypted archives.');
   });
 
   it('a format Doublet does not read, and an archive over the size limit', async () => {

@@ -17,6 +17,8 @@ export interface ZipSpec {
   size?: number;
   crc?: number;
   flags?: number;
+  /** General-purpose flags of the local header only, when it should disagree with the central one. */
+  localFlags?: number;
   /** Unix mode (file type and permissions), stored in the high half of the external attributes. */
   mode?: number;
 }
@@ -37,7 +39,7 @@ export function buildZip(specs: ZipSpec[]): Buffer {
     const local = Buffer.alloc(30);
     local.writeUInt32LE(0x04034b50, 0);
     local.writeUInt16LE(20, 4);
-    local.writeUInt16LE(flags, 6);
+    local.writeUInt16LE(spec.localFlags === undefined ? flags : spec.localFlags | 0x800, 6);
     local.writeUInt16LE(method, 8);
     local.writeUInt16LE(0, 10);
     local.writeUInt16LE(0x21, 12);
