@@ -1,3 +1,4 @@
+import { jaccard } from '../matching/join';
 import { minOverlap, overlapAtLeast, prefixLength, reaches, sizeBounds, type Threshold } from '../matching/threshold';
 
 /** A candidate of a probe: an indexed set that shares a rank with the probe's prefix and passed the position filter. */
@@ -86,7 +87,7 @@ export function verifyCandidates(
     if (!y) throw new Error(`candidate set ${setId} was not loaded for verification`);
     const overlap = overlapAtLeast(x, y, minOverlap(t, x.length, y.length));
     if (overlap > 0 && reaches(t, x.length, y.length, overlap)) {
-      matches.push({ probe, setId, size: y.length, overlap, similarity: overlap / (x.length + y.length - overlap) });
+      matches.push({ probe, setId, size: y.length, overlap, similarity: jaccard(overlap, x.length, y.length) });
     }
   }
   return matches;

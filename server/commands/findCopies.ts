@@ -1,9 +1,10 @@
 import { analyzeSnippet } from '../../analyzers';
-import { INDEX_MIN_THRESHOLD } from '../../shared/constants';
+import type { FindCopiesInput } from '../../shared/api/find-copies';
+import { DEFAULT_REPOSITORY_SETTINGS } from '../../shared/constants';
 import { findSimilarSets, locateSets, type CopyLocation } from '../clone-index/find-copies';
-import { select } from '../clone-index/sql';
+import { servedThreshold } from '../clone-index/options';
 import { ValidationError } from '../errors';
-import { parseThreshold, thresholdValue } from '../matching/threshold';
+import { repositoriesByShingleSize } from '../queries/repositories';
 
 /** One copy found: where it stands and how similar it is to the snippet's fragment. */
 export interface FoundCopy extends CopyLocation {
@@ -12,34 +13,17 @@ export interface FoundCopy extends CopyLocation {
   similarity: number;
 }
 
-/** What find copies searches with. */
-export interface FindCopiesInput {
-  organisationId: string;
-  language: string;
-  text: string;
-  /** default 0.8; at least the index threshold */
-  threshold?: number;
-}
-
 /**
  * Every fragment in the latest snapshot of each repository of the organisation whose similarity
- * to the pasted snippet reaches the threshold. The snippet is analysed with each shingle size the
- * organisation's repositories use, and compared only with repositories that use the same size.
- * The snippet text is never stored or logged.
+ * to the pasted snippet reaches the threshold (default: the repositories' default, at least the
+ * index threshold). The snippet is analyzed with each shingle size the organisation's
+ * repositories use, and compared only with repositories that use the same size. The snippet text
+ * is never stored or logged.
  */
-export async function findCopies(input: FindCopiesInput): Promise<FoundCopy[]> {
-  const t = parseThreshold(input.threshold ?? 0.8);
-  if (thresholdValue(t) < INDEX_MIN_THRESHOLD) {
-    throw new ValidationError(`threshold must be at least ${INDEX_MIN_THRESHOLD}`, 'threshold');
-  }
-  const sizes = await select<{ shingleSize: number; repositoryIds: number[] }>(
-    undefined,
-    `select shingle_size as "shingleSize", array_agg(id) as "repositoryIds" from repositories
-      where organisation_id = $1 group by shingle_size`,
-    [input.organisationId],
-  );
+export async function findCopies(input: FindCopiesInput & { organisationId: string }): Promise<FoundCopy[]> {
+  const t = servedThreshold(input.threshold ?? DEFAULT_REPOSITORY_SETTINGS.threshold);
   const found: FoundCopy[] = [];
-  for (const { shingleSize, repositoryIds } of sizes) {
+  for (const { shingleSize, repositoryIds } of await repositoriesByShingleSize(input.organisationId)) {
     let fragments;
     try {
       fragments = await analyzeSnippet(input.language, input.text, { shingleSize, minTokens: 1 });

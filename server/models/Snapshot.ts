@@ -1,4 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import type { SnapshotStatus } from '../../shared/api/snapshots';
 
 /** One analysed state of a repository with its release label, counts, timings and clone ratio. */
 export class Snapshot extends Model<InferAttributes<Snapshot>, InferCreationAttributes<Snapshot>> {
@@ -7,7 +8,7 @@ export class Snapshot extends Model<InferAttributes<Snapshot>, InferCreationAttr
   declare label: string;
   declare source: CreationOptional<string>;
   declare commitSha: CreationOptional<string | null>;
-  declare status: CreationOptional<'pending' | 'running' | 'ready' | 'failed'>;
+  declare status: CreationOptional<SnapshotStatus>;
   declare error: CreationOptional<string | null>;
   declare settings: CreationOptional<Record<string, unknown>>;
   declare fileCount: CreationOptional<number>;

@@ -1,6 +1,6 @@
 import type { CloneClassDetailDTO, CloneClassSummaryDTO, GoneClassDTO, SnapshotDTO, SnapshotMetricsDTO } from '../../shared/api/snapshots';
-import type { ClassRow, MemberRow } from '../clone-index/snapshot-classes';
-import type { InstancePair } from '../clone-index/snapshot-pairs';
+import type { FragmentPair } from '../clone-index/snapshot-pairs';
+import type { ClassRow, MemberRow } from '../queries/classes';
 import type { Snapshot } from '../models/Snapshot';
 import type { SnapshotMetric } from '../models/SnapshotMetric';
 
@@ -66,7 +66,7 @@ export function presentGoneClass(row: ClassRow): GoneClassDTO {
 export function presentCloneClassDetail(
   row: ClassRow & { repositoryId: number; snapshotLabel: string },
   members: MemberRow[],
-  pairs: InstancePair[],
+  pairs: FragmentPair[],
 ): CloneClassDetailDTO {
   return {
     ...presentCloneClass(row),

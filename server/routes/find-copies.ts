@@ -1,4 +1,5 @@
 import { findCopiesSchema, type FindCopiesResultDTO } from '../../shared/api/find-copies';
+import { DEFAULT_REPOSITORY_SETTINGS } from '../../shared/constants';
 import { currentUser } from '../auth/current-user';
 import { findCopies } from '../commands/findCopies';
 import { authorize } from '../policies';
@@ -16,8 +17,8 @@ export const findCopiesRoutes = defineRoutes('/find-copies', [
       const input = parse(findCopiesSchema, req.body);
       const actor = currentUser(req);
       authorize(actor, 'findCopies.use', { organisationId: actor.organisationId });
-      const threshold = input.threshold ?? 0.8;
-      const copies = await findCopies({ organisationId: actor.organisationId, language: input.language, text: input.text, threshold });
+      const threshold = input.threshold ?? DEFAULT_REPOSITORY_SETTINGS.threshold;
+      const copies = await findCopies({ ...input, threshold, organisationId: actor.organisationId });
       const answer: FindCopiesResultDTO = {
         threshold,
         copies: copies.map(presentFoundCopy),
