@@ -16,7 +16,6 @@ export class Repository extends Model<InferAttributes<Repository>, InferCreation
   declare updatedAt: CreationOptional<Date>;
 }
 
-/** Binds the model to a Sequelize instance (table `repositories`). */
 export function initRepository(sequelize: Sequelize) {
   Repository.init(
     {

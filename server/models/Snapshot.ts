@@ -23,7 +23,6 @@ export class Snapshot extends Model<InferAttributes<Snapshot>, InferCreationAttr
   declare updatedAt: CreationOptional<Date>;
 }
 
-/** Binds the model to a Sequelize instance (table `snapshots`). */
 export function initSnapshot(sequelize: Sequelize) {
   Snapshot.init(
     {
