@@ -77,4 +77,5 @@ export function tokenForm(text: string, cls: TokenClass, normalize: boolean): st
   return NEEDS_ESCAPE.test(text) ? `\u001e${JSON.stringify(text)}` : text;
 }
 
+// eslint-disable-next-line no-control-regex -- control characters are exactly what must be escaped
 const NEEDS_ESCAPE = /[\u0000-\u001f]|#\d+$/;

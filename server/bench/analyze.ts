@@ -11,7 +11,7 @@ import { createRequire } from 'node:module';
 import os from 'node:os';
 import path from 'node:path';
 import { Worker } from 'node:worker_threads';
-import { analyzeFile, analyzeFiles } from '../../analyzers';
+import { analyzeFiles } from '../../analyzers';
 import { POOL_RESOURCE_LIMITS } from '../../analyzers/pool';
 import type { SourceFile } from '../../analyzers/types';
 

@@ -2,7 +2,7 @@ import { bruteJoinAgainst, bruteSelfJoin } from './brute';
 import { overlapBound, SIGNATURE_WORDS, writeSignature } from './bitmap';
 import { overlapFrom, packBySize } from './packed';
 import { minOverlap, overlapAtLeast, prefixLength, reaches, sizeBounds, type Threshold } from './threshold';
-import type { Algorithm, JoinOptions, JoinProfile, JoinStats, SetPair } from './types';
+import type { JoinOptions, JoinProfile, JoinStats, SetPair } from './types';
 
 export type { Algorithm, JoinOptions, JoinProfile, JoinStats, SetPair } from './types';
 export { ALGORITHMS, newJoinStats } from './types';
