@@ -6,6 +6,7 @@ import { analyzeOptions, optionsKey, type RepositorySettings } from '../clone-in
 import { addSets, setHash } from '../clone-index/sets';
 import { db } from '../db/connection';
 import { ConflictError } from '../errors';
+import type { SnapshotSettings } from '../models/Snapshot';
 import { analysisOutcomes, findAnalyses, storeAnalyses, storeContents, storeSnapshotFiles, type SnapshotFileRow } from '../queries/files';
 import { findSnapshotByLabel, insertRunningSnapshot, markSnapshotFailed, markSnapshotReady } from '../queries/snapshots';
 import { deriveClones } from './deriveClones';
@@ -67,7 +68,7 @@ export async function loadSnapshot(input: LoadSnapshotInput): Promise<LoadSnapsh
   }
 }
 
-function settingsOf(repository: RepositorySettings) {
+function settingsOf(repository: RepositorySettings): SnapshotSettings {
   return { threshold: Number(repository.threshold), minTokens: repository.minTokens, shingleSize: repository.shingleSize, ignore: repository.ignore };
 }
 

@@ -1,6 +1,14 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 import type { SnapshotStatus } from '../../shared/api/snapshots';
 
+/** The repository's settings a snapshot was loaded with, kept with it (later changes do not rewrite it). */
+export interface SnapshotSettings {
+  threshold: number;
+  minTokens: number;
+  shingleSize: number;
+  ignore: string[];
+}
+
 /** One analysed state of a repository with its release label, counts, timings and clone ratio. */
 export class Snapshot extends Model<InferAttributes<Snapshot>, InferCreationAttributes<Snapshot>> {
   declare id: CreationOptional<number>;
@@ -10,7 +18,7 @@ export class Snapshot extends Model<InferAttributes<Snapshot>, InferCreationAttr
   declare commitSha: CreationOptional<string | null>;
   declare status: CreationOptional<SnapshotStatus>;
   declare error: CreationOptional<string | null>;
-  declare settings: CreationOptional<Record<string, unknown>>;
+  declare settings: CreationOptional<SnapshotSettings>;
   declare fileCount: CreationOptional<number>;
   declare skippedCount: CreationOptional<number>;
   declare failedCount: CreationOptional<number>;

@@ -2,7 +2,7 @@
 import type { InferAttributes, Transaction } from 'sequelize';
 import { execute, select } from '../clone-index/sql';
 import { Repository } from '../models/Repository';
-import { Snapshot } from '../models/Snapshot';
+import { Snapshot, type SnapshotSettings } from '../models/Snapshot';
 import { SnapshotMetric } from '../models/SnapshotMetric';
 
 /** A snapshot of a repository of the organisation, with that repository, or null. */
@@ -54,8 +54,7 @@ export interface NewSnapshot {
   label: string;
   source: string;
   commitSha: string | null;
-  /** the repository's settings at load time, kept with the snapshot */
-  settings: Record<string, unknown>;
+  settings: SnapshotSettings;
 }
 
 /** Inserts a snapshot row in status 'running' (outside the load's transaction, so a failure stays visible) and returns its id. */

@@ -7,7 +7,7 @@ import { buildReport } from './build';
 
 /** The clone report of a snapshot from the database, with cross-repository pairs when asked. */
 export async function snapshotReport(repository: Repository, snapshot: Snapshot, cross: boolean): Promise<CloneReport> {
-  const settings = snapshot.settings as { threshold: number; minTokens: number; shingleSize: number };
+  const settings = snapshot.settings;
   const threshold = repositoryThreshold({ threshold: settings.threshold });
   const fragments = await snapshotFragments(undefined, snapshot.id);
   const pairs = await clonePairsWithin(undefined, fragments, threshold);
