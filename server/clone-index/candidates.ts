@@ -1,4 +1,4 @@
-import { jaccard } from '../matching/join';
+import { jaccard } from '../matching/similarity';
 import { minOverlap, overlapAtLeast, prefixLength, reaches, sizeBounds, type Threshold } from '../matching/threshold';
 
 /** A candidate of a probe: an indexed set that shares a rank with the probe's prefix and passed the position filter. */

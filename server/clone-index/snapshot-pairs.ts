@@ -1,6 +1,6 @@
 import type { Transaction } from 'sequelize';
 import { cloneType } from '../matching/classes';
-import { jaccard } from '../matching/join';
+import { jaccard } from '../matching/similarity';
 import { reaches, type Threshold } from '../matching/threshold';
 import { select } from './sql';
 

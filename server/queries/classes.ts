@@ -1,6 +1,7 @@
 /** Reads of a snapshot's clone classes: lists, one class with its members' code, gone classes (see README.md). */
 import type { Transaction } from 'sequelize';
 import type { ClassListQuery, CloneClassSummaryDTO } from '../../shared/api/snapshots';
+import { splitLines } from '../../analyzers/lines';
 import { clonePairsWithin, type FragmentPair, type SnapshotFragment } from '../clone-index/snapshot-pairs';
 import { select } from '../clone-index/sql';
 import { parseThreshold } from '../matching/threshold';
@@ -108,7 +109,7 @@ export async function classMembers(classId: number, threshold: string): Promise<
   );
   const withCode: MemberRow[] = members.map(({ text, ...m }) => ({
     ...m,
-    code: text.split(/\r?\n/).slice(m.startLine - 1, m.endLine).join('\n'),
+    code: splitLines(text).slice(m.startLine - 1, m.endLine).join('\n'),
   }));
   const pairs = await clonePairsWithin(undefined, withCode, parseThreshold(threshold));
   return { members: withCode, pairs };

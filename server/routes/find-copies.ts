@@ -18,7 +18,14 @@ export const findCopiesRoutes = defineRoutes('/find-copies', [
       const actor = currentUser(req);
       authorize(actor, 'findCopies.use', { organisationId: actor.organisationId });
       const threshold = input.threshold ?? DEFAULT_REPOSITORY_SETTINGS.threshold;
-      const copies = await findCopies({ ...input, threshold, organisationId: actor.organisationId });
+      // The analysis stops when the client goes away; there is no one left to answer then.
+      const gone = new AbortController();
+      res.on('close', () => gone.abort());
+      const copies = await findCopies({ ...input, threshold, organisationId: actor.organisationId }, { signal: gone.signal }).catch((error: unknown) => {
+        if (gone.signal.aborted) return undefined;
+        throw error;
+      });
+      if (!copies) return;
       const answer: FindCopiesResultDTO = {
         threshold,
         copies: copies.map(presentFoundCopy),
