@@ -1,8 +1,8 @@
-import { classListQuerySchema, idParamsSchema, type CloneClassPageDTO, type SnapshotComparisonDTO } from '../../shared/api/snapshots';
+import { classListQuerySchema, idParamsSchema, type CloneClassPageDTO } from '../../shared/api/snapshots';
 import { currentUser } from '../auth/current-user';
 import { found } from '../errors';
 import { authorize } from '../policies';
-import { presentCloneClass, presentGoneClass, presentSnapshot } from '../presenters/snapshot';
+import { presentCloneClass, presentComparison, presentSnapshot } from '../presenters/snapshot';
 import { allSnapshotClasses, goneClasses, listSnapshotClasses } from '../queries/classes';
 import { findSnapshot, previousReadySnapshot, snapshotMetric } from '../queries/snapshots';
 import { defineRoutes } from './define';
@@ -44,12 +44,8 @@ export const snapshotRoutes = defineRoutes('/snapshots', [
       const { snapshot, repository } = found(await findSnapshot(currentUser(req).organisationId, id), 'Snapshot');
       authorize(currentUser(req), 'cloneClasses.read', repository);
       const previous = await previousReadySnapshot(undefined, snapshot.repositoryId, id);
-      const classes = (await allSnapshotClasses(id)).map(presentCloneClass);
-      const gone = previous ? (await goneClasses(id, previous.id)).map(presentGoneClass) : [];
-      const counts = { new: 0, unchanged: 0, grown: 0, shrunk: 0, edited: 0, drifted: 0, gone: gone.length };
-      for (const c of classes) counts[c.status]++;
-      const answer: SnapshotComparisonDTO = { snapshotId: id, previous: previous ?? null, counts, classes, gone };
-      res.json(answer);
+      const gone = previous ? await goneClasses(id, previous.id) : [];
+      res.json(presentComparison(id, previous, await allSnapshotClasses(id), gone));
     },
   },
 ]);
