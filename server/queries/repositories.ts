@@ -31,7 +31,8 @@ export interface LatestSnapshot {
 
 /** The latest ready snapshot of each of the repositories, by repository id (absent: none ready). */
 export async function latestReadySnapshots(repositoryIds: number[]): Promise<Map<number, LatestSnapshot>> {
-  const rows = await select<Omit<LatestSnapshot, 'fragmentTokens' | 'clonedTokens'> & { repositoryId: number; fragmentTokens: string | null; clonedTokens: string | null }>(
+  type Row = Omit<LatestSnapshot, 'fragmentTokens' | 'clonedTokens'> & { repositoryId: number; fragmentTokens: string | null; clonedTokens: string | null };
+  const rows = await select<Row>(
     undefined,
     `select distinct on (s.repository_id) s.repository_id as "repositoryId", s.id, s.label, s.clone_ratio as "cloneRatio",
             m.fragment_tokens as "fragmentTokens", m.cloned_tokens as "clonedTokens", s.created_at as "createdAt"
@@ -41,7 +42,12 @@ export async function latestReadySnapshots(repositoryIds: number[]): Promise<Map
   );
   // bigint columns arrive as text
   const count = (value: string | null) => (value === null ? null : Number(value));
-  return new Map(rows.map(({ repositoryId, fragmentTokens, clonedTokens, ...r }) => [repositoryId, { ...r, fragmentTokens: count(fragmentTokens), clonedTokens: count(clonedTokens) }]));
+  return new Map(
+    rows.map(({ repositoryId, fragmentTokens, clonedTokens, ...rest }) => [
+      repositoryId,
+      { ...rest, fragmentTokens: count(fragmentTokens), clonedTokens: count(clonedTokens) },
+    ]),
+  );
 }
 
 /** The latest ready snapshot of one repository, or null. */
