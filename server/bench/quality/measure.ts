@@ -8,7 +8,7 @@ import { analyzeFiles, type Fragment } from '../../../analyzers';
 import { joinAgainst, selfJoin } from '../../matching/join';
 import { rankShingles } from '../../matching/order';
 import { parseThreshold, reaches } from '../../matching/threshold';
-import { random } from '../synthetic';
+import { mix, random } from '../synthetic';
 import { jsSnippet, lineStarts, pySnippet, type CorpusFile } from './corpus';
 import { applyJsEdit, type EditResult, type JsEditKind } from './js-edits';
 import { applyPyEdit, type PyEditKind, type PySnippet } from './python-edits';
@@ -101,13 +101,6 @@ interface Plant {
   text: string;
   /** Where the copy starts in the plant's text (1-based line). */
   line: number;
-}
-
-/** A stable small hash for per-function seeds, so a copy does not depend on the order of the others. */
-function mix(a: number, b: number, c: number): number {
-  let h = Math.imul(a ^ 0x9e3779b9, 0x85ebca6b) ^ Math.imul(b + 0x632be5ab, 0xc2b2ae35) ^ Math.imul(c + 0x27d4eb2f, 0x165667b1);
-  h ^= h >>> 15;
-  return h >>> 0;
 }
 
 function fragmentKey(path: string, f: Fragment): string {
@@ -205,7 +198,8 @@ export async function measureQuality(options: MeasureOptions): Promise<MeasureRe
     for (let k = 0; k < options.kinds.length; k++) {
       const result = kinds[k]!;
       result.tried++;
-      const stream = random(mix(options.seed, f, k));
+      // A stream per (function, kind): a copy does not depend on which other copies were made.
+      const stream = random(mix(options.seed, k, f));
       let edited: EditResult;
       try {
         edited = options.language === 'js'

@@ -6,6 +6,7 @@
 import { parse, parseExpression, type ParserPlugin } from '@babel/parser';
 
 /** A Babel node as the edits see it: a type and any fields. */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- Babel and recast nodes are read and written field by field across dozens of node types; every edited copy is re-parsed, which is the check
 export type Node = { type: string; loc?: { start: { line: number; column: number }; end: { line: number; column: number } } } & Record<string, any>;
 
 /** How a source is parsed: the same dialects the analyzer uses for the file's extension. */
