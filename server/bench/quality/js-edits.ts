@@ -79,13 +79,13 @@ export function applyJsEdit(kind: JsEditKind, snippet: Snippet, random: () => nu
       if (!snippet.dialect.typescript) return { skipped: 'not TypeScript' };
       return treeEdit(snippet, random, changeTypes);
     case 'rename-one':
-      return treeEdit(snippet, random, renameOne);
+      return spliceEdit(snippet, random, renameOne);
     case 'rename-all':
-      return treeEdit(snippet, random, renameAll);
+      return spliceEdit(snippet, random, renameAll);
     case 'rename-inconsistent':
-      return treeEdit(snippet, random, renameInconsistently);
+      return spliceEdit(snippet, random, renameInconsistently);
     case 'literals':
-      return treeEdit(snippet, random, (edit) => changeLiterals(edit, 3));
+      return spliceEdit(snippet, random, (edit) => changeLiterals(edit, 3));
     case 'insert-1':
       return treeEdit(snippet, random, (edit) => insertStatements(edit, 1));
     case 'insert-2':
@@ -100,9 +100,12 @@ export function applyJsEdit(kind: JsEditKind, snippet: Snippet, random: () => nu
       return treeEdit(snippet, random, reorderStatements);
     case 'wrap':
       return treeEdit(snippet, random, wrapInCondition);
-    case 'combined':
+    case 'combined': {
       // The literal first, so it is one of the function's own and not one of the inserted statement's.
-      return treeEdit(snippet, random, (edit) => changeLiterals(edit, 1) ?? renameOne(edit) ?? insertStatements(edit, 1));
+      const renamed = spliceEdit(snippet, random, (edit) => changeLiterals(edit, 1) ?? renameOne(edit));
+      if ('skipped' in renamed) return renamed;
+      return treeEdit({ ...snippet, text: renamed.text }, random, (edit) => insertStatements(edit, 1));
+    }
     default:
       throw new Error(`unknown edit kind "${String(kind)}"`);
   }
@@ -221,13 +224,34 @@ interface TreeEdit {
   fn: Node;
   random: () => number;
   variables: Variables;
+  /** The snippet's text (spliceEdit's offsets point into it). */
+  text: string;
+  /** Text replacements at Babel's offsets (names and literals), for spliceEdit. */
+  splices: Array<{ start: number; end: number; text: string }>;
+}
+
+/**
+ * Renames and literal changes are written into the text at the nodes' offsets, not reprinted:
+ * a reprinted statement can gain a semicolon it did not have (recast prints its own style), and
+ * these edits must change nothing but the names and literals.
+ */
+function spliceEdit(snippet: Snippet, random: () => number, edit: (e: TreeEdit) => string | undefined): EditResult {
+  const root = parseStrict(snippet.text, snippet.dialect);
+  const fn = findFunction(root, snippet);
+  if (!fn) throw new Error(`no function at ${snippet.line}:${snippet.column} of the snippet`);
+  const splices: TreeEdit['splices'] = [];
+  const skipped = edit({ root, fn, random, variables: variablesOf(fn, root), splices, text: snippet.text });
+  if (skipped) return { skipped };
+  let text = snippet.text;
+  for (const s of [...splices].sort((a, b) => b.start - a.start)) text = text.slice(0, s.start) + s.text + text.slice(s.end);
+  return { text };
 }
 
 function treeEdit(snippet: Snippet, random: () => number, edit: (e: TreeEdit) => string | undefined): EditResult {
   const root = recast.parse(snippet.text, { parser: recastParser(snippet.dialect) }) as Node;
   const fn = findFunction(root, snippet);
   if (!fn) throw new Error(`no function at ${snippet.line}:${snippet.column} of the snippet`);
-  const skipped = edit({ root, fn, random, variables: variablesOf(fn, root) });
+  const skipped = edit({ root, fn, random, variables: variablesOf(fn, root), splices: [], text: snippet.text });
   if (skipped) return { skipped };
   return { text: recast.print(root).code };
 }
@@ -275,14 +299,21 @@ function renameOne(edit: TreeEdit): string | undefined {
   if (names.length === 0) return 'no local variable used twice';
   const name = pick(names, edit.random);
   const to = freshName(edit.variables, edit.random);
-  renameVariable(edit.variables, name, to);
+  renameVariable(edit, name, to);
   return undefined;
 }
 
+/** Renames one identifier (its name only: a type annotation inside the node's range stays). */
+function renameNode(edit: TreeEdit, node: Node, to: string): void {
+  edit.splices.push({ start: node.start, end: node.start + String(node.name).length, text: to });
+  node.name = to;
+}
+
 /** Renames every use of a variable, and keeps the record of variables up to date for a later edit. */
-function renameVariable(variables: Variables, name: string, to: string): void {
+function renameVariable(edit: TreeEdit, name: string, to: string): void {
+  const { variables } = edit;
   const uses = variables.occurrences.get(name)!;
-  for (const node of uses) node.name = to;
+  for (const node of uses) renameNode(edit, node, to);
   variables.occurrences.delete(name);
   variables.occurrences.set(to, uses);
   variables.declared.delete(name);
@@ -292,7 +323,7 @@ function renameVariable(variables: Variables, name: string, to: string): void {
 function renameAll(edit: TreeEdit): string | undefined {
   const names = renamable(edit.variables, 1);
   if (names.length < 2) return 'fewer than two local variables';
-  for (const name of names) renameVariable(edit.variables, name, freshName(edit.variables, edit.random));
+  for (const name of names) renameVariable(edit, name, freshName(edit.variables, edit.random));
   return undefined;
 }
 
@@ -304,7 +335,7 @@ function renameInconsistently(edit: TreeEdit): string | undefined {
     const to = freshName(edit.variables, edit.random);
     // A non-empty proper subset of the uses: some renamed, at least one not.
     const count = 1 + Math.floor(edit.random() * (uses.length - 1));
-    for (const node of pickSome(uses, count, edit.random)) node.name = to;
+    for (const node of pickSome(uses, count, edit.random)) renameNode(edit, node, to);
   }
   return undefined;
 }
@@ -317,6 +348,8 @@ function changeLiterals(edit: TreeEdit, most: number): string | undefined {
     if (node.type !== 'StringLiteral' && node.type !== 'NumericLiteral') return true;
     const parent = place.parent?.type ?? '';
     if (place.key === 'source' || parent === 'JSXAttribute' || parent.startsWith('Import') || parent.startsWith('Export')) return true;
+    // `1..toFixed()`: another number written in its place could lose the dot the member access needs.
+    if (edit.text[node.end] === '.') return true;
     literals.push(node);
     return true;
   });
@@ -331,6 +364,10 @@ function changeLiterals(edit: TreeEdit, most: number): string | undefined {
       node.value = node.value === value ? `${value}-edited` : node.value;
     }
     delete node.extra;
+    // The words are plain letters, so the literal needs no escapes; it keeps its own quote character.
+    const quote = edit.text[node.start] === "'" ? "'" : '"';
+    const raw = node.type === 'NumericLiteral' ? String(node.value) : `${quote}${String(node.value)}${quote}`;
+    edit.splices.push({ start: node.start, end: node.end, text: raw });
   }
   return undefined;
 }

@@ -250,6 +250,16 @@ describe('JavaScript/TypeScript edit operators on a hand-written function', () =
       expect('text' in result && result.text).toContain('`${props.a}  and\n  ${props.b}`');
     });
 
+    it('renaming in code without semicolons adds none: names are written in place, not reprinted', () => {
+      const text = 'function listen() {\n  var server = http.createServer(this)\n  var args = slice.call(arguments)\n  return server.listen.apply(server, args)\n}\n';
+      const snippet: Snippet = { text, line: 1, column: 0, dialect: { typescript: false, jsx: true } };
+      const result = applyJsEdit('rename-all', snippet, random(1));
+      const copy = 'text' in result ? result.text : '';
+      expect(copy).not.toContain(';');
+      const changes = changedTokens(tokenTexts(text, snippet.dialect), tokenTexts(copy, snippet.dialect));
+      expect(changes.map(([from]) => from).sort()).toEqual(['args', 'args', 'server', 'server', 'server']);
+    });
+
     it('the same seed gives the same copy', () => {
       expect(edited('insert-5', 9)).toBe(edited('insert-5', 9));
     });
