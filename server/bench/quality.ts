@@ -79,6 +79,11 @@ function printResult(title: string, result: MeasureResult): void {
     const sample = result.corpusSamples[String(t)] ?? [];
     console.log(`\nA sample of ten corpus pairs at t = ${t} (shingle size 3), to read:`);
     for (const p of sample) console.log(`  ${p.similarity.toFixed(3)}  ${p.a}  ↔  ${p.b}`);
+    const band = result.corpusBandSamples[String(t)];
+    if (band) {
+      console.log(`…and ten of those below the next threshold up (what lowering the threshold to ${t} would add):`);
+      for (const p of band) console.log(`  ${p.similarity.toFixed(3)}  ${p.a}  ↔  ${p.b}`);
+    }
   }
 }
 

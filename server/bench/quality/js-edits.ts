@@ -67,7 +67,7 @@ export const JS_EDIT_DESCRIPTIONS: Record<JsEditKind, string> = {
  *
  * @example
  * applyJsEdit('insert-1', { text: 'function f(a) {\n  a.x = 1;\n  return a;\n}', line: 1, column: 0, dialect }, random(1))
- * // { text: 'function f(a) {\n  a.x = 1;\n  metrics.count += 1;\n  return a;\n}' }
+ * // { text: 'function f(a) {\n  a.x = 1;\n  console.debug("checkpoint", a);\n  return a;\n}' } (which statement, and where, depends on the seed)
  */
 export function applyJsEdit(kind: JsEditKind, snippet: Snippet, random: () => number): EditResult {
   switch (kind) {

@@ -81,6 +81,8 @@ export interface MeasureResult {
   corpusPairs: Record<string, number>;
   /** Per threshold, up to ten corpus pairs at the default shingle size (3, or the first size given). */
   corpusSamples: Record<string, CorpusPairSample[]>;
+  /** Per threshold t, up to ten corpus pairs at or above t but below the next threshold given (default shingle size). */
+  corpusBandSamples: Record<string, CorpusPairSample[]>;
   corpusFragments: number;
   seconds: { edit: number; analyze: number; join: number };
 }
@@ -233,6 +235,7 @@ export async function measureQuality(options: MeasureOptions): Promise<MeasureRe
   // 4. Per shingle size: analyse corpus + copies, join copies against the corpus and the corpus with itself.
   const corpusPairs: Record<string, number> = {};
   const corpusSamples: Record<string, CorpusPairSample[]> = {};
+  const corpusBandSamples: Record<string, CorpusPairSample[]> = {};
   let corpusFragments = 0;
   const failedPlants = new Set<number>();
   for (const k of options.shingleSizes) {
@@ -288,14 +291,24 @@ export async function measureQuality(options: MeasureOptions): Promise<MeasureRe
       corpusPairs[`${k}:${thresholds[t]!.value}`] = at.length;
       for (const p of at) corpusPairKeys[t]!.add(p.a * corpus.length + p.b);
       if (k === defaultK) {
-        const sample = [...at];
-        const take: CorpusPairSample[] = [];
-        while (take.length < 10 && sample.length > 0) {
-          const p = sample.splice(Math.floor(sampleRng() * sample.length), 1)[0]!;
-          const label = (i: number) => `${corpus[i]!.path}:${corpus[i]!.fragment.startLine}-${corpus[i]!.fragment.endLine} ${corpus[i]!.fragment.name}`;
-          take.push({ a: label(p.a), b: label(p.b), similarity: p.overlap / (corpusSets[p.a]!.length + corpusSets[p.b]!.length - p.overlap) });
+        const label = (i: number) => `${corpus[i]!.path}:${corpus[i]!.fragment.startLine}-${corpus[i]!.fragment.endLine} ${corpus[i]!.fragment.name}`;
+        const sample = (pairs: typeof own) => {
+          const pool = [...pairs];
+          const take: CorpusPairSample[] = [];
+          while (take.length < 10 && pool.length > 0) {
+            const p = pool.splice(Math.floor(sampleRng() * pool.length), 1)[0]!;
+            take.push({ a: label(p.a), b: label(p.b), similarity: p.overlap / (corpusSets[p.a]!.length + corpusSets[p.b]!.length - p.overlap) });
+          }
+          return take;
+        };
+        corpusSamples[String(thresholds[t]!.value)] = sample(at);
+        // What lowering the threshold to t from the next one up would add.
+        const next = thresholds.filter((x) => x.value > thresholds[t]!.value).sort((a, b) => a.value - b.value)[0];
+        if (next) {
+          corpusBandSamples[String(thresholds[t]!.value)] = sample(
+            at.filter((p) => !reaches(next.parsed, corpusSets[p.a]!.length, corpusSets[p.b]!.length, p.overlap)),
+          );
         }
-        corpusSamples[String(thresholds[t]!.value)] = take;
       }
     }
     const isCorpusPair = (t: number, x: number, y: number) => corpusPairKeys[t]!.has(Math.min(x, y) * corpus.length + Math.max(x, y));
@@ -328,6 +341,7 @@ export async function measureQuality(options: MeasureOptions): Promise<MeasureRe
     kinds,
     corpusPairs,
     corpusSamples,
+    corpusBandSamples,
     corpusFragments,
     seconds,
   };

@@ -58,7 +58,7 @@ function splice(text: string, edits: Splice[]): string {
  *
  * @example
  * await applyPyEdit('delete-1', { text: 'def f(a):\n    b = a + 1\n    return b\n', line: 1 }, random(1))
- * // { text: 'def f(a):\n    return b\n' }
+ * // { text: 'def f(a):\n    return b\n' } (or the other line gone, depending on the seed)
  */
 export async function applyPyEdit(kind: PyEditKind, snippet: PySnippet, random: () => number): Promise<EditResult> {
   const tree = (await pythonParser()).parse(snippet.text);

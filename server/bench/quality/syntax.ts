@@ -118,6 +118,7 @@ export function isTypeOnly(node: Node): boolean {
   return node.type.startsWith('TS') && !TS_VALUE_NODES.has(node.type);
 }
 
+/** Whether a value is a syntax tree node (an object with a string `type`). */
 export function isNode(value: unknown): value is Node {
   return typeof value === 'object' && value !== null && typeof (value as { type?: unknown }).type === 'string';
 }
