@@ -6,8 +6,10 @@ import {
   inviteUserSchema,
   type InvitationListDTO,
 } from '../../shared/api/invitations';
+import type { Request } from 'express';
+import { clientAddress, credentialLimiterOf } from '../auth/credential-limit';
 import { currentUser } from '../auth/current-user';
-import { acceptInvitation, findUsableInvitation } from '../commands/acceptInvitation';
+import { acceptInvitation, findUsableInvitation, UnusableInvitationError } from '../commands/acceptInvitation';
 import { inviteUser } from '../commands/inviteUser';
 import { NotFoundError } from '../errors';
 import { Invitation } from '../models/Invitation';
@@ -17,6 +19,12 @@ import { presentInvitation, presentInvitationPreview } from '../presenters/invit
 import { presentUser } from '../presenters/user';
 import { defineRoutes } from './define';
 import { parse } from './validate';
+
+/** Runs a look-up of a one-time link under the sign-in limits: an unusable link counts as a failed check. */
+function limitedLinkCheck<T>(req: Request, check: () => Promise<T>): Promise<T> {
+  const limiter = credentialLimiterOf(req);
+  return limiter.guard(limiter.addressKeys(clientAddress(req)), check, (error) => error instanceof UnusableInvitationError);
+}
 
 /**
  * /api/invitations: admins invite people and see or revoke pending invitations; the one-time
@@ -71,7 +79,7 @@ export const invitationRoutes = defineRoutes('/invitations', [
     guard: 'public',
     handler: async (req, res) => {
       const { token } = parse(invitationTokenParamsSchema, req.params);
-      const invitation = await findUsableInvitation(token);
+      const invitation = await limitedLinkCheck(req, () => findUsableInvitation(token));
       const organisation = await Organisation.findByPk(invitation.organisationId, { rejectOnEmpty: true });
       res.json(presentInvitationPreview(invitation, organisation));
     },
@@ -83,7 +91,7 @@ export const invitationRoutes = defineRoutes('/invitations', [
     handler: async (req, res) => {
       const { token } = parse(invitationTokenParamsSchema, req.params);
       const body = parse(acceptInvitationSchema, req.body);
-      const user = await acceptInvitation({ token, ...body });
+      const user = await limitedLinkCheck(req, () => acceptInvitation({ token, ...body }));
       res.status(201).json(presentUser(user));
     },
   },
