@@ -87,7 +87,8 @@ export function absoluteSessionLifetime(maxAgeMs: number): RequestHandler {
     const signedInAt = req.session?.signedInAt;
     if (typeof signedInAt === 'number' && Date.now() - signedInAt <= maxAgeMs) return next();
     delete req.user;
-    req.session.destroy((error) => next(error));
+    // A fresh, empty session (the old row is deleted; the new one is stored only if someone signs in).
+    req.session.regenerate((error) => next(error));
   };
 }
 

@@ -86,6 +86,25 @@ describe('finding 2: sign-in limits cannot lock others out', () => {
     await agent.post('/api/session').set('X-Forwarded-For', colleague).send({ email: user.email, password: TEST_PASSWORD }).expect(200);
   });
 
+  it('limits invitation links the same way: unusable tokens from one address end in 429, a good link elsewhere still works', async () => {
+    const app = createApp({ trustProxy: true, limits: { perAddress: 3 } });
+    const [guesser, invitee] = [freshAddress(), freshAddress()];
+    const team = await buildTeam();
+    const admin = await signedInAgent(app, team.admin);
+    const email = uniqueEmail('linked');
+    await admin.post('/api/invitations').send({ email, name: 'Linked Person', role: 'viewer' }).expect(201);
+    const token = /\/invitations\/([A-Za-z0-9_-]{43})/.exec(sentMail(email).at(-1)!.text)![1];
+    const visitor = await anonymousAgent(app);
+    for (let i = 0; i < 3; i += 1) {
+      const guess = `${'A'.repeat(42)}${i}`;
+      await visitor.post(`/api/invitations/token/${guess}/accept`).set('X-Forwarded-For', guesser).send({ name: 'X', password: 'long-enough-password' }).expect(404);
+    }
+    await visitor.get(`/api/invitations/token/${token}`).set('X-Forwarded-For', guesser).expect(429);
+    // A body that fails validation is refused before the link is looked at, so it does not count.
+    await visitor.post(`/api/invitations/token/${token}/accept`).set('X-Forwarded-For', invitee).send({ name: '' }).expect(400);
+    await visitor.post(`/api/invitations/token/${token}/accept`).set('X-Forwarded-For', invitee).send({ name: 'Linked Person', password: 'long-enough-password' }).expect(201);
+  });
+
   it('keeps the counts in PostgreSQL, so every process (here: two apps) sees them', async () => {
     const limits = { perAccount: 2 };
     const [first, second] = [createApp({ trustProxy: true, limits }), createApp({ trustProxy: true, limits })];
@@ -110,7 +129,11 @@ describe('finding 3: security headers and caching', () => {
     expect(csp).toMatch(/object-src 'none'/);
     expect(res.headers['x-content-type-options']).toBe('nosniff');
     expect(res.headers['referrer-policy']).toBe('same-origin');
+    expect(res.headers['x-frame-options']).toBe('DENY');
     expect(res.headers['cache-control']).toBe('no-cache');
+    // Plain HTTP (no SECURE_COOKIES): no HSTS, no upgrade of requests to HTTPS.
+    expect(res.headers['strict-transport-security']).toBeUndefined();
+    expect(csp).not.toMatch(/upgrade-insecure-requests/);
   });
 
   it('answers every API request with Cache-Control: no-store and nosniff', async () => {
@@ -128,6 +151,8 @@ describe('finding 3: security headers and caching', () => {
     expect(asset).toBeDefined();
     const res = await request(app).get(asset!).expect(200);
     expect(res.headers['cache-control']).toBe('public, max-age=31536000, immutable');
+    // A missing asset is a 404, not the page.
+    await request(app).get('/assets/index-0000000.js').expect(404);
   });
 });
 
@@ -212,7 +237,13 @@ describe('finding 5: sessions', () => {
       bind: [user.id, eightDaysAgo],
     });
     await agent.get('/api/repositories').expect(401);
-    expect((await agent.get('/api/session').expect(200)).body.user).toBeNull();
+    const after = await agent.get('/api/session').expect(200);
+    expect(after.body.user).toBeNull();
+    // The old row is gone, and signing in again starts a new lifetime.
+    const [rows] = await db().query(`select count(*)::int as n from sessions where sess -> 'passport' ->> 'user' = $1`, { bind: [user.id] });
+    expect((rows as { n: number }[])[0].n).toBe(0);
+    await agent.post('/api/session').set(CSRF_HEADER, after.body.csrfToken).send({ email: user.email, password: TEST_PASSWORD }).expect(200);
+    await agent.get('/api/repositories').expect(200);
   });
 });
 
