@@ -8,7 +8,8 @@ function intFromEnv(name: string, fallback: number): number {
   const raw = process.env[name];
   if (raw === undefined || raw === '') return fallback;
   const value = Number(raw);
-  if (!Number.isInteger(value) || value <= 0) throw new Error(`${name} must be a positive integer, got "${raw}"`);
+  // Plain digits only: Number() would also take "1e3", "0x10" or " 5 ".
+  if (!/^[1-9][0-9]*$/.test(raw) || !Number.isSafeInteger(value)) throw new Error(`${name} must be a positive integer, got "${raw}"`);
   return value;
 }
 
