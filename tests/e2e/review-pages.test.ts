@@ -172,22 +172,46 @@ describe('the class view in Chromium', () => {
     const { page } = await pageAs(team.viewer);
     try {
       await openClass(page, loads.v3.snapshotId, 'grown');
-      const reached: Array<{ label: string | null; outline: string }> = [];
+      // A focus is visible as an outline, or (form fields) as a ring drawn with a box shadow.
+      const reached: Array<{ label: string; visible: boolean }> = [];
       for (let i = 0; i < 60; i++) {
         await page.keyboard.press('Tab');
-        reached.push(
-          await page.evaluate(() => {
-            const el = document.activeElement as HTMLElement;
-            const style = getComputedStyle(el);
-            return { label: el.getAttribute('aria-label'), outline: `${style.outlineStyle} ${style.outlineWidth}` };
-          }),
-        );
+        const stop = await page.evaluate(() => {
+          const el = document.activeElement as HTMLElement;
+          if (el === document.body) return null;
+          const style = getComputedStyle(el);
+          const outline = style.outlineStyle !== 'none' && parseFloat(style.outlineWidth) > 0;
+          return { label: el.getAttribute('aria-label') ?? `${el.tagName} ${el.textContent?.slice(0, 30)}`, visible: outline || style.boxShadow !== 'none' };
+        });
+        if (stop) reached.push(stop);
       }
+      // Every stop on the way shows where the focus is, not only the two checked below.
+      expect(reached.filter((r) => !r.visible)).toEqual([]);
       const cell = reached.find((r) => r.label?.startsWith('Compare '));
       const code = reached.find((r) => r.label?.startsWith('Code of '));
       expect(cell).toBeDefined();
       expect(code).toBeDefined();
-      for (const r of [cell!, code!]) expect(r.outline).not.toMatch(/^none|0px$/);
+    } finally {
+      await page.close();
+    }
+  }, 60_000);
+});
+
+describe('the pair view scrolls both copies together', () => {
+  it('moves the right pane when the left one is scrolled sideways, and back', async () => {
+    const { page } = await pageAs(team.viewer);
+    try {
+      // Narrow enough that both copies' longest lines overflow their panes.
+      await page.setViewportSize({ width: 1100, height: 800 });
+      await openClass(page, ratesLoad.snapshotId, 'new');
+      const panes = page.locator('article [role="region"]');
+      expect(await panes.count()).toBe(2);
+      const overflow = await panes.evaluateAll((els) => els.map((e) => e.scrollWidth - e.clientWidth));
+      expect(Math.min(...overflow)).toBeGreaterThan(40);
+      await panes.nth(0).evaluate((e) => (e.scrollLeft = 40));
+      await expect.poll(() => panes.nth(1).evaluate((e) => e.scrollLeft)).toBe(40);
+      await panes.nth(1).evaluate((e) => (e.scrollLeft = 10));
+      await expect.poll(() => panes.nth(0).evaluate((e) => e.scrollLeft)).toBe(10);
     } finally {
       await page.close();
     }
