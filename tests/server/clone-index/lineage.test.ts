@@ -4,7 +4,10 @@ import { fragmentKey, type FragmentIdentity } from '../../../server/clone-index/
 import { assignLineages, type LineageClass } from '../../../server/clone-index/lineage';
 
 /** A member key as the load builds it: path, name, occurrence (the raw hash is not part of it). */
-const key = (path: string, name: string, rawHash = 'h', occurrence = 0) => fragmentKey({ path, name, occurrence, rawHash } satisfies FragmentIdentity);
+const key = (path: string, name: string, rawHash = 'h', occurrence = 0) => {
+  const fragment: FragmentIdentity = { path, name, occurrence, rawHash };
+  return fragmentKey(fragment);
+};
 
 describe('assignLineages', () => {
   const rule = [key('billing/tariff.js', 'rate'), key('yard/shunting.js', 'rate')];
