@@ -53,11 +53,12 @@ export const up: Migration['up'] = async ({ sequelize }) => {
 
 /** Assigns lineages to one stored snapshot's classes and returns them as the next snapshot's previous classes. */
 async function replay(sequelize: Sequelize, snapshotId: number, repositoryId: number, previous: LineageClass[]): Promise<LineageClass[]> {
-  // a member's key as fragmentKey builds it: path, name, and the occurrence of that name in the file
+  // a member's key, as fragmentKey knows it: path, name, and the occurrence of that name in the file
+  // (as a JSON array: PostgreSQL text cannot hold fragmentKey's NUL separator)
   const rows = await sequelize.query<{ classId: number; members: string[] }>(
     `with numbered as (
        select sf.id as snapshot_file_id, f.id as fragment_id,
-              sf.path || chr(0) || f.name || chr(0) || (row_number() over (partition by sf.path, f.name order by f.ordinal) - 1) as key
+              json_build_array(sf.path, f.name, row_number() over (partition by sf.path, f.name order by f.ordinal) - 1)::text as key
          from snapshot_files sf join fragments f on f.analysis_id = sf.analysis_id
         where sf.snapshot_id = $1)
      select c.id as "classId", array_agg(n.key) as members
