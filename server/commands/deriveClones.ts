@@ -20,7 +20,8 @@ export interface DerivedClones {
 /**
  * The step of a load after its files are stored: the snapshot's clone pairs (from stored set
  * pairs, at the repository's threshold), its classes compared with the previous ready snapshot's
- * and linked to their lineages (server/clone-index/lineage.ts), its clone ratio and figures, all written in the load's transaction.
+ * and linked to their lineages (server/clone-index/lineage.ts), its clone ratio and figures, all
+ * written in the load's transaction.
  */
 export async function deriveClones(tx: Transaction, snapshotId: number, repository: RepositorySettings & { id: number }): Promise<DerivedClones> {
   const t = repositoryThreshold(repository);
@@ -79,8 +80,8 @@ function identities(fragments: SnapshotFragment[]): FragmentIdentity[] {
 
 /**
  * The previous ready snapshot's classes (as fragment identities, with their ids and lineage ids in
- * the same order) and the raw hash of every one of its fragments by fragment key; all empty for a first
- * snapshot.
+ * the same order) and the raw hash of every one of its fragments by fragment key; all empty for a
+ * first snapshot.
  */
 async function previousClasses(tx: Transaction, repositoryId: number, snapshotId: number) {
   const previous = await previousReadySnapshot(tx, repositoryId, snapshotId);
