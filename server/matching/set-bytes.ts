@@ -81,7 +81,7 @@ export function parseSetBytes(bytes: Uint8Array): FlatSets {
     if (digits > MAX_DIGITS || value > MAX_SET_TOKEN) throw badToken(bytes, length - digits, set);
     tokens[filled++] = value;
   }
-  if (set < count) offsets[++set] = filled;
+  if (set < count) offsets[set + 1] = filled;
   return { tokens: filled === tokens.length ? tokens : tokens.subarray(0, filled), offsets };
 }
 
