@@ -144,7 +144,12 @@ export async function build(outdir = defaultOutdir) {
   });
   fs.writeFileSync(path.join(staging, STAMP), `${JSON.stringify({ inputs, builtAt: new Date().toISOString() })}\n`);
   const old = `${outdir}.old-${process.pid}`;
-  if (fs.existsSync(outdir)) fs.renameSync(outdir, old);
+  try {
+    fs.renameSync(outdir, old);
+  } catch (error) {
+    // nothing built yet, or another process is swapping its build in right now
+    if (error.code !== 'ENOENT') throw error;
+  }
   try {
     fs.renameSync(staging, outdir);
   } catch (error) {
