@@ -63,8 +63,9 @@ export async function inviteUser(input: {
     ? await write(input.transaction)
     : await db().transaction(write);
 
-  await sendMail(
-    invitationMail({
+  await sendMail({
+    organisationId: invitation.organisationId,
+    ...invitationMail({
       to: invitation.email,
       inviteeName: invitation.name,
       inviterName: actor.name,
@@ -73,6 +74,6 @@ export async function inviteUser(input: {
       link: invitationLink(token),
       expiresAt: invitation.expiresAt,
     }),
-  );
+  });
   return invitation;
 }

@@ -1,0 +1,120 @@
+import PgBoss from 'pg-boss';
+import { loadConfig } from '../config';
+import { localDatabaseUrl } from '../db/postgres';
+import { jobDefinitions, JOBS, type JobData, type QueueName } from './registry';
+
+/** How startJobs() runs pg-boss in this process. */
+export interface StartJobsOptions {
+  /** The database; default DATABASE_URL or the local cluster's database (the app's own). */
+  connectionString?: string;
+  /** PostgreSQL schema of pg-boss's tables (default `pgboss`); tests use one a file. */
+  schema?: string;
+  /** Work every registered queue in this process (the embedded worker, or `npm run worker`). */
+  work?: boolean;
+  /** How often an idle worker looks for jobs (pg-boss's minimum is 0.5 s). */
+  pollingIntervalSeconds?: number;
+  /** Per-queue changes to the registered send options (tests shorten retry delays). */
+  sendOptions?: { [Q in QueueName]?: PgBoss.SendOptions };
+}
+
+interface Running {
+  boss: PgBoss;
+  working: boolean;
+  sendOptions: { [Q in QueueName]?: PgBoss.SendOptions };
+}
+
+let running: Running | undefined;
+let starting: Promise<Running> | undefined;
+
+/**
+ * Starts this process's one PgBoss (creating or upgrading its schema on first use), creates every
+ * registered queue, and with `work` starts the workers. Calling it again while started is a no-op.
+ *
+ * @example
+ * await startJobs({ work: true });
+ */
+export async function startJobs(options: StartJobsOptions = {}): Promise<void> {
+  if (running) return;
+  starting ??= open(options).finally(() => {
+    starting = undefined;
+  });
+  running = await starting;
+}
+
+async function open(options: StartJobsOptions): Promise<Running> {
+  const config = loadConfig();
+  const boss = new PgBoss({
+    connectionString: options.connectionString ?? config.externalDatabaseUrl ?? localDatabaseUrl(config.databaseName),
+    schema: options.schema ?? 'pgboss',
+    application_name: 'doublet-jobs',
+    max: 4,
+    // No cron schedules yet: skip the clock monitor and its polling.
+    schedule: false,
+    // Finished jobs keep their data (a mail's body holds one-time links) for a day, not pg-boss's week.
+    archiveCompletedAfterSeconds: 3600,
+    deleteAfterDays: 1,
+  });
+  // pg-boss reports connection trouble as events; without a listener an 'error' would crash the process.
+  boss.on('error', (error) => console.error(`jobs: ${error.message}`));
+  await boss.start();
+  const definitions = jobDefinitions();
+  for (const definition of definitions) await boss.createQueue(definition.queue);
+  if (options.work) {
+    for (const definition of definitions) {
+      for (let i = 0; i < (definition.workers ?? 1); i++) {
+        await boss.work<object>(
+          definition.queue,
+          { batchSize: 1, includeMetadata: true, pollingIntervalSeconds: options.pollingIntervalSeconds ?? 2 },
+          async ([job]) => definition.handler(job.data, { id: job.id, retryCount: job.retryCount }),
+        );
+      }
+    }
+  }
+  return { boss, working: Boolean(options.work), sendOptions: options.sendOptions ?? {} };
+}
+
+/**
+ * Stops the workers, lets running jobs finish for up to `timeoutMs` (what is still running then is
+ * failed and retried later by any worker), and closes the queue's connections. Safe to call when
+ * not started; the drain on SIGTERM calls it.
+ *
+ * @example
+ * process.on('SIGTERM', () => stopJobs().then(() => process.exit(0)));
+ */
+export async function stopJobs(options: { timeoutMs?: number } = {}): Promise<void> {
+  if (starting) await starting.catch(() => undefined);
+  const current = running;
+  running = undefined;
+  if (!current) return;
+  await current.boss.stop({ graceful: true, wait: true, timeout: options.timeoutMs ?? 10_000 });
+}
+
+/**
+ * Puts a job on a registered queue with that queue's retry and expiry options (the caller's
+ * options win) and returns its id. Needs startJobs() in this process; any process that works
+ * the queue runs it.
+ *
+ * @example
+ * await send('mail.send', { to, subject, text });
+ */
+export async function send<Q extends QueueName>(queue: Q, data: JobData<Q>, options: PgBoss.SendOptions = {}): Promise<string> {
+  if (!running) throw new Error('The job queue is not started in this process: call startJobs() first.');
+  const id = await running.boss.send(queue, data as object, {
+    ...JOBS[queue].sendOptions,
+    ...running.sendOptions[queue],
+    ...options,
+  });
+  if (!id) throw new Error(`pg-boss refused a job on ${queue}`);
+  return id;
+}
+
+/** The running PgBoss (tests read job states with it); throws when not started. */
+export function jobQueue(): PgBoss {
+  if (!running) throw new Error('The job queue is not started in this process.');
+  return running.boss;
+}
+
+/** Whether this process works the queues (an embedded or stand-alone worker). */
+export function isWorking(): boolean {
+  return running?.working ?? false;
+}
