@@ -12,6 +12,12 @@ function intFromEnv(name: string, fallback: number): number {
   return value;
 }
 
+function identifierFromEnv(name: string, fallback: string): string {
+  const value = process.env[name] || fallback;
+  if (!/^[a-z_][a-z0-9_]{0,62}$/.test(value)) throw new Error(`${name} must be a lower-case SQL name (a-z, 0-9, _), got "${value}"`);
+  return value;
+}
+
 /**
  * Every setting the server reads from the environment, in one place, with defaults that work on a
  * fresh machine. Read lazily (a function, not a constant) so tests can point at their own database.
@@ -36,6 +42,8 @@ export function loadConfig() {
     smtpUrl: process.env.SMTP_URL || undefined,
     /** Whether `npm start` also works jobs in its own process; `false` leaves them to `npm run worker`. */
     embeddedWorker: process.env.DOUBLET_EMBEDDED_WORKER !== 'false',
+    /** PostgreSQL schema of the job queue's tables (pg-boss), in the app's database. */
+    jobsSchema: identifierFromEnv('DOUBLET_JOBS_SCHEMA', 'pgboss'),
     publicUrl: process.env.PUBLIC_URL ?? `http://127.0.0.1:${intFromEnv('PORT', 3030)}`,
     mailFrom: process.env.MAIL_FROM ?? 'Doublet <doublet@localhost>',
     secureCookies: process.env.SECURE_COOKIES === 'true',

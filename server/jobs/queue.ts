@@ -7,7 +7,7 @@ import { jobDefinitions, JOBS, type JobData, type QueueName } from './registry';
 export interface StartJobsOptions {
   /** The database; default DATABASE_URL or the local cluster's database (the app's own). */
   connectionString?: string;
-  /** PostgreSQL schema of pg-boss's tables (default `pgboss`); tests use one a file. */
+  /** PostgreSQL schema of pg-boss's tables (default DOUBLET_JOBS_SCHEMA, `pgboss`); tests use one a file. */
   schema?: string;
   /** Work every registered queue in this process (the embedded worker, or `npm run worker`). */
   work?: boolean;
@@ -45,7 +45,7 @@ async function open(options: StartJobsOptions): Promise<Running> {
   const config = loadConfig();
   const boss = new PgBoss({
     connectionString: options.connectionString ?? config.externalDatabaseUrl ?? localDatabaseUrl(config.databaseName),
-    schema: options.schema ?? 'pgboss',
+    schema: options.schema ?? config.jobsSchema,
     application_name: 'doublet-jobs',
     max: 4,
     // No cron schedules yet: skip the clock monitor and its polling.

@@ -71,6 +71,11 @@ export async function startMailCatcher(options: { port: number; host?: string })
       });
     },
   });
+  let listening = false;
+  // smtp-server re-emits its socket's errors; before listening, the promise below reports them.
+  server.on('error', (error) => {
+    if (listening) console.error(`mail catcher: ${error.message}`);
+  });
   await new Promise<void>((resolve, reject) => {
     const onError = (error: NodeJS.ErrnoException) => {
       reject(
@@ -82,10 +87,10 @@ export async function startMailCatcher(options: { port: number; host?: string })
     server.server.once('error', onError);
     server.listen(options.port, host, () => {
       server.server.off('error', onError);
+      listening = true;
       resolve();
     });
   });
-  server.on('error', (error) => console.error(`mail catcher: ${error.message}`));
   const port = (server.server.address() as AddressInfo).port;
   let stopped: Promise<void> | undefined;
   return {

@@ -4,7 +4,7 @@
  * templates write the messages.
  */
 export { sendMail } from './send';
-export { deliver, mailTarget, setMailTarget, ORGANISATION_HEADER, type MailMessage, type MailTarget, type OutgoingMail } from './transport';
+export { deliver, mailTarget, newMessageId, setMailTarget, ORGANISATION_HEADER, type MailMessage, type MailTarget, type OutgoingMail } from './transport';
 export { startMailCatcher, CATCHER_MAX_BYTES, type MailCatcher } from './catcher';
 export { storeReceivedMail, OUTBOX_LIMIT } from './store';
 export { invitationMail } from './templates';
