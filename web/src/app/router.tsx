@@ -1,5 +1,6 @@
 import { BrowserRouter, Link, Route, Routes } from 'react-router-dom';
 import { SignInRoute } from '../features/auth/routes/sign-in';
+import { OutboxRoute } from '../features/outbox/routes/outbox';
 import { RequireAction, SignedInFrame } from './guards';
 import { AcceptInvitationRoute } from './routes/accept-invitation';
 import { AccountRoute } from './routes/account';
@@ -56,6 +57,9 @@ export function AppRoutes() {
         </Route>
         <Route element={<RequireAction action="users.manage" />}>
           <Route path="admin" element={<AdminRoute />} />
+        </Route>
+        <Route element={<RequireAction action="outbox.read" />}>
+          <Route path="outbox" element={<OutboxRoute />} />
         </Route>
         <Route path="*" element={<NotFoundRoute />} />
       </Route>
