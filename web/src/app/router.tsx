@@ -1,6 +1,6 @@
 import { BrowserRouter, Link, Route, Routes } from 'react-router-dom';
-import { SignInRoute } from '../features/auth/routes/sign-in';
-import { OutboxRoute } from '../features/outbox/routes/outbox';
+import { SignInRoute } from '@/features/auth/routes/sign-in';
+import { OutboxRoute } from '@/features/outbox/routes/outbox';
 import { RequireAction, SignedInFrame } from './guards';
 import { AcceptInvitationRoute } from './routes/accept-invitation';
 import { AccountRoute } from './routes/account';

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { OutboxMessageAnswerDTO } from '../../../../../shared/api/outbox';
-import { api } from '../../../lib/api-client';
+import type { OutboxMessageAnswerDTO } from '@shared/api/outbox';
+import { api } from '@/lib/api-client';
 
 /** GET /api/outbox/:id: one message with its text and HTML. */
 export function getOutboxMessage(id: string): Promise<OutboxMessageAnswerDTO> {

@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { OutboxListDTO } from '../../../../../shared/api/outbox';
-import { api } from '../../../lib/api-client';
+import type { OutboxListDTO } from '@shared/api/outbox';
+import { api } from '@/lib/api-client';
 
 /** Messages a page of the outbox shows. */
 export const OUTBOX_PAGE_SIZE = 25;

@@ -1,6 +1,6 @@
-import { QueryState } from '../../../components/data-state';
-import { formatDateTime } from '../../../lib/format';
-import { useOutboxMessage } from '../api/get-outbox-message';
+import { QueryState } from '@/components/data-state';
+import { formatDateTime } from '@/lib/format';
+import { useOutboxMessage } from '@/features/outbox/api/get-outbox-message';
 
 /**
  * One received message: its header lines, the text body, and the HTML body as the recipient's

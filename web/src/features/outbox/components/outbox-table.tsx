@@ -1,9 +1,9 @@
 import clsx from 'clsx';
 import { Link } from 'react-router-dom';
-import { Button } from '../../../components/button';
-import { QueryState } from '../../../components/data-state';
-import { formatDateTime } from '../../../lib/format';
-import { OUTBOX_PAGE_SIZE, useOutbox } from '../api/get-outbox';
+import { Button } from '@/components/button';
+import { QueryState } from '@/components/data-state';
+import { formatDateTime } from '@/lib/format';
+import { OUTBOX_PAGE_SIZE, useOutbox } from '@/features/outbox/api/get-outbox';
 
 /**
  * The organisation's received mail, newest first: recipient, subject, time. A row links to the

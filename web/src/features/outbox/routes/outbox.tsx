@@ -1,8 +1,8 @@
 import { useSearchParams } from 'react-router-dom';
-import { PageHeader } from '../../../components/page-header';
-import { Panel } from '../../../components/panel';
-import { MessageView } from '../components/message-view';
-import { OutboxTable } from '../components/outbox-table';
+import { PageHeader } from '@/components/page-header';
+import { Panel } from '@/components/panel';
+import { MessageView } from '@/features/outbox/components/message-view';
+import { OutboxTable } from '@/features/outbox/components/outbox-table';
 
 /** A page number from the URL; anything else is page 1. */
 function pageFrom(raw: string | null): number {
