@@ -91,17 +91,19 @@ export async function stopJobs(options: { timeoutMs?: number } = {}): Promise<vo
 
 /**
  * Puts a job on a registered queue with that queue's retry and expiry options (the caller's
- * options win) and returns its id. Needs startJobs() in this process; any process that works
- * the queue runs it.
+ * options win) and returns its id. Any process that works the queue runs it. In a process that
+ * has not called startJobs() (a command-line tool, a test), the first send opens the queue with
+ * the configured defaults, for sending only.
  *
  * @example
- * await send('mail.send', { to, subject, text });
+ * await send('mail.send', { to, subject, text, messageId });
  */
 export async function send<Q extends QueueName>(queue: Q, data: JobData<Q>, options: PgBoss.SendOptions = {}): Promise<string> {
-  if (!running) throw new Error('The job queue is not started in this process: call startJobs() first.');
-  const id = await running.boss.send(queue, data as object, {
+  if (!running) await startJobs();
+  const current = running!;
+  const id = await current.boss.send(queue, data as object, {
     ...JOBS[queue].sendOptions,
-    ...running.sendOptions[queue],
+    ...current.sendOptions[queue],
     ...options,
   });
   if (!id) throw new Error(`pg-boss refused a job on ${queue}`);

@@ -75,10 +75,16 @@ describe('npm run worker (server/worker.ts)', () => {
   });
 
   describe('edge cases', () => {
-    it('refuses to queue before startJobs() with a message that says so', async () => {
+    it('opens the queue on the first send in a process that never started it (sending only)', async () => {
       await stopJobs();
-      await expect(sendMail({ to: uniqueEmail(), subject: 's', text: 't' })).rejects.toThrow(/not started.*startJobs/);
-      await startJobs({ connectionString: process.env.DATABASE_URL, schema: SCHEMA });
+      process.env.DOUBLET_JOBS_SCHEMA = SCHEMA;
+      try {
+        await sendMail({ to: uniqueEmail(), subject: 'Queued lazily', text: 't' });
+      } finally {
+        delete process.env.DOUBLET_JOBS_SCHEMA;
+      }
+      const [rows] = await db().query(`select count(*)::int as n from "${SCHEMA}".job where name = 'mail.send' and data->>'subject' = 'Queued lazily'`);
+      expect((rows as { n: number }[])[0].n).toBe(1);
     });
   });
 });
