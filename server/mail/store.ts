@@ -36,15 +36,15 @@ async function organisationOf(header: string | undefined, recipients: string[]):
 
 /**
  * Parses one received message (mailparser) and stores it in `outbox_messages`; a message whose
- * Message-ID is already stored (a retried delivery) is not stored twice. Returns the row, or null
- * for such a duplicate. Nothing of the message is logged.
+ * Message-ID is already stored (a retried delivery) is not stored twice. Nothing of the message is
+ * logged.
  */
-export async function storeReceivedMail(mail: ReceivedMail): Promise<OutboxMessage | null> {
+export async function storeReceivedMail(mail: ReceivedMail): Promise<void> {
   const parsed = await simpleParser(mail.raw, { skipImageLinks: true, skipTextLinks: true });
   const recipients = [...new Set(mail.envelopeTo.map((a) => a.trim().toLowerCase()))];
   const header = parsed.headers.get(ORGANISATION_HEADER.toLowerCase());
   const organisationId = await organisationOf(typeof header === 'string' ? header.trim() : undefined, recipients);
-  const [row] = await OutboxMessage.bulkCreate(
+  await OutboxMessage.bulkCreate(
     [
       {
         organisationId,
@@ -58,10 +58,9 @@ export async function storeReceivedMail(mail: ReceivedMail): Promise<OutboxMessa
         receivedAt: mail.receivedAt ?? new Date(),
       },
     ],
-    { ignoreDuplicates: true, returning: true },
+    { ignoreDuplicates: true },
   );
   await pruneOutbox();
-  return row?.id ? row : null;
 }
 
 /** Deletes all but the newest OUTBOX_LIMIT messages. */
