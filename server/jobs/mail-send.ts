@@ -12,7 +12,16 @@ export const mailSendJob = defineJob<OutgoingMail>({
   queue: 'mail.send',
   sendOptions: { retryLimit: 12, retryDelay: 10, retryBackoff: true, expireInSeconds: 120, retentionHours: 48 },
   workers: 2,
-  handler: async (mail) => {
-    await deliver(mail);
+  handler: async (mail, job) => {
+    try {
+      await deliver(mail);
+    } catch (error) {
+      // Recipient and subject only: the body can hold a one-time link.
+      if (!process.env.DOUBLET_TEST) {
+        const reason = error instanceof Error ? error.message : String(error);
+        console.error(`mail: "${mail.subject}" to ${mail.to} not delivered (attempt ${job.retryCount + 1}): ${reason}`);
+      }
+      throw error;
+    }
   },
 });
