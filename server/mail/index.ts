@@ -5,6 +5,6 @@
  */
 export { sendMail } from './send';
 export { deliver, mailTarget, newMessageId, setMailTarget, ORGANISATION_HEADER, type MailMessage, type MailTarget, type OutgoingMail } from './transport';
-export { startMailCatcher, CATCHER_MAX_BYTES, type MailCatcher } from './catcher';
+export { startMailCatcher, CATCHER_MAX_BYTES, CATCHER_MAX_RECIPIENTS, type MailCatcher } from './catcher';
 export { storeReceivedMail, OUTBOX_LIMIT } from './store';
 export { invitationMail } from './templates';

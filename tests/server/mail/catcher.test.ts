@@ -3,7 +3,7 @@ import type { Express } from 'express';
 import nodemailer, { type Transporter } from 'nodemailer';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../../server/app';
-import { CATCHER_MAX_BYTES, ORGANISATION_HEADER, startMailCatcher, type MailCatcher } from '../../../server/mail';
+import { CATCHER_MAX_BYTES, CATCHER_MAX_RECIPIENTS, ORGANISATION_HEADER, startMailCatcher, type MailCatcher } from '../../../server/mail';
 import { OutboxMessage } from '../../../server/models/OutboxMessage';
 import { buildTeam, mailTo, signedInAgent, uniqueEmail, useDatabase } from '../../support';
 
@@ -81,6 +81,14 @@ describe('the local mail catcher', () => {
         .then(() => null, (e: { responseCode?: number }) => e);
       expect(error?.responseCode).toBe(552);
       expect(await OutboxMessage.count({ where: { subject: 'Too big' } })).toBe(0);
+    });
+
+    it('takes at most 100 recipients a message and refuses the rest with 452', async () => {
+      const recipients = Array.from({ length: CATCHER_MAX_RECIPIENTS + 1 }, (_, i) => uniqueEmail(`crew${i}`));
+      const info = await smtp.sendMail({ from: 'a@b.example', to: recipients, subject: 'Crew roster', text: 'x' });
+      expect(info.rejected).toEqual([recipients[CATCHER_MAX_RECIPIENTS]]);
+      const [stored] = await mailTo(recipients[0]);
+      expect(stored.toAddresses).toHaveLength(CATCHER_MAX_RECIPIENTS);
     });
 
     it('ignores an organisation header that names no organisation', async () => {
