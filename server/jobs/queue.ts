@@ -19,6 +19,7 @@ export interface StartJobsOptions {
 
 interface Running {
   boss: PgBoss;
+  schema: string;
   working: boolean;
   sendOptions: { [Q in QueueName]?: PgBoss.SendOptions };
 }
@@ -43,9 +44,10 @@ export async function startJobs(options: StartJobsOptions = {}): Promise<void> {
 
 async function open(options: StartJobsOptions): Promise<Running> {
   const config = loadConfig();
+  const schema = options.schema ?? config.jobsSchema;
   const boss = new PgBoss({
     connectionString: options.connectionString ?? config.externalDatabaseUrl ?? localDatabaseUrl(config.databaseName),
-    schema: options.schema ?? config.jobsSchema,
+    schema,
     application_name: 'doublet-jobs',
     max: 4,
     // No cron schedules yet: skip the clock monitor and its polling.
@@ -70,7 +72,7 @@ async function open(options: StartJobsOptions): Promise<Running> {
       }
     }
   }
-  return { boss, working: Boolean(options.work), sendOptions: options.sendOptions ?? {} };
+  return { boss, schema, working: Boolean(options.work), sendOptions: options.sendOptions ?? {} };
 }
 
 /**
@@ -108,6 +110,27 @@ export async function send<Q extends QueueName>(queue: Q, data: JobData<Q>, opti
   });
   if (!id) throw new Error(`pg-boss refused a job on ${queue}`);
   return id;
+}
+
+/**
+ * How many jobs of a queue are not done yet (waiting for an attempt or a retry, or in one), among
+ * those whose data contains `match` (a JSON containment test). Opens the queue like send() when
+ * needed.
+ *
+ * @example
+ * await waitingJobs('mail.send', { organisationId }) // mails not yet accepted by the mail server
+ */
+export async function waitingJobs(queue: QueueName, match: Record<string, string>): Promise<number> {
+  if (!running) await startJobs();
+  const current = running!;
+  // The schema is a checked SQL name (config) or a test's own; everything else is a parameter.
+  const { rows } = await current.boss
+    .getDb()
+    .executeSql(
+      `select count(*)::int as n from "${current.schema}".job where name = $1 and state in ('created', 'retry', 'active') and data @> $2::jsonb`,
+      [queue, JSON.stringify(match)],
+    );
+  return (rows[0] as { n: number }).n;
 }
 
 /** The running PgBoss (tests read job states with it); throws when not started. */

@@ -1,6 +1,7 @@
 import { outboxParamsSchema, outboxQuerySchema, type OutboxListDTO, type OutboxMessageAnswerDTO } from '../../shared/api/outbox';
 import { currentUser } from '../auth/current-user';
 import { NotFoundError } from '../errors';
+import { waitingJobs } from '../jobs';
 import { OutboxMessage } from '../models/OutboxMessage';
 import { authorize } from '../policies';
 import { presentOutboxMessage, presentOutboxSummary } from '../presenters/outbox';
@@ -29,7 +30,8 @@ export const outboxRoutes = defineRoutes('/outbox', [
         limit: query.pageSize,
         offset: (query.page - 1) * query.pageSize,
       });
-      const answer: OutboxListDTO = { messages: rows.map(presentOutboxSummary), total: count, page: query.page, pageSize: query.pageSize };
+      const waiting = await waitingJobs('mail.send', { organisationId: actor.organisationId });
+      const answer: OutboxListDTO = { messages: rows.map(presentOutboxSummary), waiting, total: count, page: query.page, pageSize: query.pageSize };
       res.json(answer);
     },
   },

@@ -36,6 +36,8 @@ export interface OutboxMessageDTO extends OutboxMessageSummaryDTO {
 /** Answer of GET /api/outbox. */
 export interface OutboxListDTO {
   messages: OutboxMessageSummaryDTO[];
+  /** Mail about the organisation still queued: the mail server has not accepted it yet (it is retried). */
+  waiting: number;
   total: number;
   page: number;
   pageSize: number;

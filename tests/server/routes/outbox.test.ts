@@ -35,7 +35,7 @@ describe('GET /api/outbox', () => {
     const admin = await signedInAgent(app, team.admin);
 
     const first = await admin.get('/api/outbox?pageSize=2').expect(200);
-    expect(first.body).toMatchObject({ total: 3, page: 1, pageSize: 2 });
+    expect(first.body).toMatchObject({ total: 3, page: 1, pageSize: 2, waiting: 0 });
     expect(first.body.messages.map((m: { subject: string }) => m.subject)).toEqual(['newest', 'middle']);
     expect(Object.keys(first.body.messages[0]).sort()).toEqual(['from', 'id', 'receivedAt', 'sizeBytes', 'subject', 'to']);
     const second = await admin.get('/api/outbox?pageSize=2&page=2').expect(200);

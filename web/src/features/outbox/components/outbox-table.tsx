@@ -2,6 +2,7 @@ import clsx from 'clsx';
 import { Link } from 'react-router-dom';
 import { Button } from '@/components/button';
 import { QueryState } from '@/components/data-state';
+import { Notice } from '@/components/notice';
 import { formatDateTime } from '@/lib/format';
 import { OUTBOX_PAGE_SIZE, useOutbox } from '@/features/outbox/api/get-outbox';
 
@@ -22,18 +23,29 @@ export function OutboxTable({
 }) {
   const outbox = useOutbox(page);
   if (!outbox.data) return <QueryState query={outbox} what="the outbox" />;
-  const { messages, total } = outbox.data;
+  const { messages, total, waiting } = outbox.data;
+  const waitingNotice =
+    waiting > 0 ? (
+      <Notice tone="warning">
+        {waiting === 1 ? '1 message is' : `${waiting} messages are`} waiting for the mail server. Doublet keeps trying; it
+        appears here once delivered.
+      </Notice>
+    ) : null;
   if (total === 0) {
     return (
-      <p className="text-sm text-muted">
-        No mail yet. Invitations and other mail Doublet sends to people of your organisation appear here once the local
-        mail server has received them.
-      </p>
+      <div className="space-y-3">
+        {waitingNotice}
+        <p className="text-sm text-muted">
+          No mail yet. Invitations and other mail Doublet sends to people of your organisation appear here once the local
+          mail server has received them.
+        </p>
+      </div>
     );
   }
   const pages = Math.max(1, Math.ceil(total / OUTBOX_PAGE_SIZE));
   return (
     <div className="space-y-3">
+      {waitingNotice}
       <table className="w-full table-fixed text-sm">
         <thead>
           <tr className="text-left text-xs tracking-wide text-muted uppercase">
