@@ -22,16 +22,21 @@ export interface ReceivedMail {
 }
 
 /**
- * Which organisation's admins may read a message: the organisation the sender named in the
- * X-Doublet-Organisation header when it exists, else the organisation of a recipient who has an
- * account, else none (the message is stored but shown to nobody). The sender's word is taken
- * because an invitee has no account yet, and one address may be invited by two organisations:
- * deriving it from the address alone would show one organisation's invitation to the other.
+ * Which organisation's admins may read a message: the organisation it is about, when every
+ * recipient is either that organisation's member or someone without an account (an invitee).
+ * The organisation is the one the sender named in the X-Doublet-Organisation header when that
+ * exists, else the one organisation of the recipients who have accounts. A message to someone who
+ * belongs to another organisation is filed under none: one organisation's admins never read mail
+ * to another's members (an invitation to an address that has an account elsewhere says so, and
+ * that is for the address's owner alone). Filed under none, a message is stored but shown to nobody.
  */
 async function organisationOf(header: string | undefined, recipients: string[]): Promise<string | null> {
-  if (header && UUID.test(header) && (await Organisation.findByPk(header, { attributes: ['id'] }))) return header;
-  const user = await User.findOne({ where: { email: { [Op.in]: recipients } }, attributes: ['organisationId'] });
-  return user?.organisationId ?? null;
+  const accounts = await User.findAll({ where: { email: { [Op.in]: recipients } }, attributes: ['organisationId'] });
+  const accountOrganisations = new Set(accounts.map((u) => u.organisationId));
+  const named = header && UUID.test(header) && (await Organisation.findByPk(header, { attributes: ['id'] })) ? header : undefined;
+  const candidate = named ?? (accountOrganisations.size === 1 ? [...accountOrganisations][0] : undefined);
+  if (!candidate) return null;
+  return [...accountOrganisations].every((id) => id === candidate) ? candidate : null;
 }
 
 /**

@@ -3,9 +3,9 @@ import type { Migration } from '../db/migrate';
 
 /**
  * What the local mail catcher received: one row a message, newest first by `received_at`. The
- * organisation is the one the sender named (or the recipient's), so an organisation's admins
- * read only their own mail; a message with no organisation is shown to nobody. The Message-ID
- * is unique, so a retried delivery of one mail is stored once.
+ * organisation is the one the mail is about (server/mail/store.ts decides), so an organisation's
+ * admins read only their own mail; a message with no organisation is shown to nobody. The
+ * Message-ID is unique, so a retried delivery of one mail is stored once.
  */
 export const up: Migration['up'] = async ({ queryInterface }) => {
   await queryInterface.createTable('outbox_messages', {

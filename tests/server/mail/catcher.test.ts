@@ -91,6 +91,22 @@ describe('the local mail catcher', () => {
       expect(stored.toAddresses).toHaveLength(CATCHER_MAX_RECIPIENTS);
     });
 
+    it('files a message under no organisation when a recipient belongs to another one than the header names', async () => {
+      const ours = await buildTeam();
+      const theirs = await buildTeam();
+      await smtp.sendMail({
+        from: 'a@b.example',
+        to: theirs.viewer.email,
+        subject: 'Invitation to someone with an account elsewhere',
+        text: 'x',
+        headers: { [ORGANISATION_HEADER]: ours.organisation.id },
+      });
+      const [stored] = await mailTo(theirs.viewer.email);
+      expect(stored.organisationId).toBeNull();
+      expect((await (await signedInAgent(app, ours.admin)).get('/api/outbox').expect(200)).body.total).toBe(0);
+      expect((await (await signedInAgent(app, theirs.admin)).get('/api/outbox').expect(200)).body.total).toBe(0);
+    });
+
     it('ignores an organisation header that names no organisation', async () => {
       const to = uniqueEmail('forged');
       await smtp.sendMail({ from: 'a@b.example', to, subject: 'Forged', text: 'x', headers: { [ORGANISATION_HEADER]: crypto.randomUUID() } });
