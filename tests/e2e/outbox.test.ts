@@ -82,6 +82,7 @@ describe('the Outbox in Chromium', () => {
     expect(labels).not.toContain('Outbox');
     await page.goto(`${session.baseUrl}/outbox`, { waitUntil: 'networkidle' });
     await page.getByRole('heading', { name: 'Not available to your role' }).waitFor();
+    await page.screenshot({ path: path.join(SCREENSHOTS, 'outbox-lead.png'), fullPage: true });
     await page.close();
   }, 60_000);
 });
