@@ -1,4 +1,6 @@
+import type { ClientBase } from 'pg';
 import PgBoss from 'pg-boss';
+import type { Transaction } from 'sequelize';
 import { loadConfig } from '../config';
 import { localDatabaseUrl } from '../db/postgres';
 import { jobDefinitions, JOBS, type JobData, type QueueName } from './registry';
@@ -91,6 +93,25 @@ export async function stopJobs(options: { timeoutMs?: number } = {}): Promise<vo
   await current.boss.stop({ graceful: true, wait: true, timeout: options.timeoutMs ?? 10_000 });
 }
 
+/** Options of send(): pg-boss's, plus the caller's transaction. */
+export type SendJobOptions = Omit<PgBoss.SendOptions, 'db'> & {
+  /**
+   * Store the job in this (Sequelize) transaction: it exists only if the transaction commits, so
+   * a write and the job that follows it up happen both or neither.
+   */
+  transaction?: Transaction;
+};
+
+/**
+ * pg-boss's database hook over the transaction's own connection. Sequelize keeps the pg client a
+ * transaction runs on as `transaction.connection` (not in its typings).
+ */
+function inTransaction(transaction: Transaction): PgBoss.Db {
+  const client = (transaction as unknown as { connection?: ClientBase }).connection;
+  if (!client) throw new Error('send(): the transaction has no connection (has it finished?)');
+  return { executeSql: (text, values) => client.query(text, values) };
+}
+
 /**
  * Puts a job on a registered queue with that queue's retry and expiry options (the caller's
  * options win) and returns its id. Any process that works the queue runs it. In a process that
@@ -99,14 +120,17 @@ export async function stopJobs(options: { timeoutMs?: number } = {}): Promise<vo
  *
  * @example
  * await send('mail.send', { to, subject, text, messageId });
+ * await send('mail.send', mail, { transaction }); // stored only if the transaction commits
  */
-export async function send<Q extends QueueName>(queue: Q, data: JobData<Q>, options: PgBoss.SendOptions = {}): Promise<string> {
+export async function send<Q extends QueueName>(queue: Q, data: JobData<Q>, options: SendJobOptions = {}): Promise<string> {
   if (!running) await startJobs();
   const current = running!;
+  const { transaction, ...sendOptions } = options;
   const id = await current.boss.send(queue, data as object, {
     ...JOBS[queue].sendOptions,
     ...current.sendOptions[queue],
-    ...options,
+    ...sendOptions,
+    ...(transaction ? { db: inTransaction(transaction) } : {}),
   });
   if (!id) throw new Error(`pg-boss refused a job on ${queue}`);
   return id;
