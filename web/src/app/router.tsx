@@ -1,7 +1,6 @@
 import { Suspense, lazy, type ComponentType } from 'react';
 import { BrowserRouter, Link, Route, Routes } from 'react-router-dom';
 import { SignInRoute } from '@/features/auth/routes/sign-in';
-import { OutboxRoute } from '@/features/outbox/routes/outbox';
 import { RequireAction, SignedInFrame } from './guards';
 import { PlaceholderRoute } from './routes/placeholder';
 
@@ -19,6 +18,7 @@ const AdminRoute = page(() => import('./routes/admin'), 'AdminRoute');
 const CloneClassRoute = page(() => import('./routes/clone-class'), 'CloneClassRoute');
 const CloneClassesRoute = page(() => import('./routes/clone-classes'), 'CloneClassesRoute');
 const FindCopiesRoute = page(() => import('./routes/find-copies'), 'FindCopiesRoute');
+const OutboxRoute = page(() => import('@/features/outbox/routes/outbox'), 'OutboxRoute');
 const OverviewRoute = page(() => import('./routes/overview'), 'OverviewRoute');
 const RepositoriesRoute = page(() => import('./routes/repositories'), 'RepositoriesRoute');
 const RepositoryRoute = page(() => import('./routes/repository'), 'RepositoryRoute');
