@@ -4,12 +4,14 @@ import { seedDemoRepositories } from './commands/seedDemoRepositories';
 import { projectRoot } from './config';
 import { openDatabase } from './db';
 import { serve } from './index';
+import { startEmbedded } from './jobs';
 import { initModels } from './models';
 
 /** `npm start`: database up and migrated, demo data on an empty database, client built, then serve. */
 async function main() {
   const sequelize = await openDatabase();
   initModels(sequelize);
+  await startEmbedded();
   const seeded = await seedDemo();
   if (seeded) {
     console.log(`Seeding the demo organisation "${seeded.name}" with its repositories…`);
