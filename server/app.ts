@@ -5,6 +5,7 @@ import { passport } from './auth/passport';
 import { createSessionMiddleware } from './auth/session';
 import { projectRoot } from './config';
 import { db } from './db/connection';
+import { isDatabaseUnavailable } from './db/unavailable';
 import { HttpError } from './errors';
 import { initModels } from './models';
 import { buildApiRouter, type ApiRouterOptions } from './routes';
@@ -55,6 +56,11 @@ const errorHandler: ErrorRequestHandler = (error, _req, res, _next) => {
   }
   if (error?.type === 'entity.parse.failed') {
     res.status(400).json({ error: { code: 'invalid_json', message: 'The request body is not valid JSON.' } });
+    return;
+  }
+  if (isDatabaseUnavailable(error)) {
+    // PostgreSQL is down or restarting: a temporary condition the pool recovers from by itself.
+    res.status(503).set('Retry-After', '5').json({ error: { code: 'database_unavailable', message: 'The database is unavailable right now; try again in a few seconds.' } });
     return;
   }
   console.error('unhandled error:', error instanceof Error ? error.stack : error);

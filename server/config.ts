@@ -4,11 +4,13 @@ import { fileURLToPath } from 'node:url';
 /** Absolute path of the checkout; every project-local path hangs off it. */
 export const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
-function intFromEnv(name: string, fallback: number): number {
+function intFromEnv(name: string, fallback: number, { allowZero = false } = {}): number {
   const raw = process.env[name];
   if (raw === undefined || raw === '') return fallback;
   const value = Number(raw);
-  if (!Number.isInteger(value) || value <= 0) throw new Error(`${name} must be a positive integer, got "${raw}"`);
+  if (!Number.isInteger(value) || value < (allowZero ? 0 : 1)) {
+    throw new Error(`${name} must be a ${allowZero ? 'non-negative' : 'positive'} integer, got "${raw}"`);
+  }
   return value;
 }
 
@@ -21,7 +23,8 @@ export function loadConfig() {
   const dataDir = path.resolve(process.env.DOUBLET_DATA_DIR ?? path.join(projectRoot, '.data'));
   const databaseName = process.env.DOUBLET_DB_NAME ?? 'doublet';
   return {
-    port: intFromEnv('PORT', 3030),
+    /** 0 lets the system pick a free port (tests, benchmarks); the server prints the one it got. */
+    port: intFromEnv('PORT', 3030, { allowZero: true }),
     host: process.env.HOST ?? '127.0.0.1',
     /** When set, everything uses this server and the local cluster is never started. */
     externalDatabaseUrl: process.env.DATABASE_URL || undefined,
@@ -34,6 +37,8 @@ export function loadConfig() {
     publicUrl: process.env.PUBLIC_URL ?? `http://127.0.0.1:${intFromEnv('PORT', 3030)}`,
     mailFrom: process.env.MAIL_FROM ?? 'Doublet <doublet@localhost>',
     secureCookies: process.env.SECURE_COOKIES === 'true',
+    /** On SIGTERM/SIGINT, how long in-flight requests and background work may run before they are cut off. */
+    shutdownGraceMs: intFromEnv('SHUTDOWN_GRACE_MS', 10_000),
   };
 }
 

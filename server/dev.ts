@@ -1,14 +1,16 @@
 import { createServer } from 'vite';
 import { projectRoot } from './config';
 import { openDatabase } from './db';
-import { serve } from './index';
+import { drainOnSignals, onShutdown, serve } from './index';
 
 /** `npm run dev`: the API on PORT and Vite's dev server (with /api proxied to it) on 5173. */
 async function main() {
   await openDatabase();
-  await serve();
+  const server = await serve();
   const vite = await createServer({ configFile: `${projectRoot}/vite.config.ts` });
   await vite.listen(5173);
+  onShutdown('vite dev server', () => vite.close());
+  drainOnSignals(server);
   vite.printUrls();
 }
 

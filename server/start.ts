@@ -3,10 +3,14 @@ import { demoSignInLines, seedDemo } from './commands/seedDemo';
 import { seedDemoRepositories } from './commands/seedDemoRepositories';
 import { projectRoot } from './config';
 import { openDatabase } from './db';
-import { serve } from './index';
+import { drainOnSignals, serve } from './index';
 import { initModels } from './models';
 
-/** `npm start`: database up and migrated, demo data on an empty database, client built, then serve. */
+/**
+ * `npm start`: database up and migrated, demo data on an empty database, client built, then serve
+ * until SIGTERM or Ctrl-C, which drain in-flight requests first. The local cluster keeps running
+ * (`npm run db:stop` stops it).
+ */
 async function main() {
   const sequelize = await openDatabase();
   initModels(sequelize);
@@ -20,7 +24,7 @@ async function main() {
   for (const line of demoSignInLines()) console.log(line);
   console.log('Building the client…');
   await build({ configFile: `${projectRoot}/vite.config.ts`, logLevel: 'warn' });
-  await serve();
+  drainOnSignals(await serve());
 }
 
 main().catch((error: unknown) => {
