@@ -34,7 +34,7 @@ export function loadConfig() {
     databaseName,
     sessionSecret: process.env.SESSION_SECRET ?? 'doublet-local-development-secret',
     smtpPort: intFromEnv('DOUBLET_SMTP_PORT', 2526),
-    publicUrl: process.env.PUBLIC_URL ?? `http://127.0.0.1:${intFromEnv('PORT', 3030)}`,
+    publicUrl: process.env.PUBLIC_URL ?? `http://127.0.0.1:${intFromEnv('PORT', 3030, { allowZero: true })}`,
     mailFrom: process.env.MAIL_FROM ?? 'Doublet <doublet@localhost>',
     secureCookies: process.env.SECURE_COOKIES === 'true',
     /** On SIGTERM/SIGINT, how long in-flight requests and background work may run before they are cut off. */

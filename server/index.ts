@@ -18,6 +18,7 @@ export function serve(): Promise<Server> {
   const app = createApp();
   return new Promise((resolve, reject) => {
     const server = app.listen(config.port, config.host, () => {
+      track(server);
       const { port } = server.address() as AddressInfo;
       console.log(`Doublet is serving on http://${config.host}:${port}/`);
       resolve(server);
@@ -86,7 +87,10 @@ export async function drain(server: Server, graceMs: number): Promise<DrainRepor
   for (const res of responses) if (!res.headersSent) res.setHeader('Connection', 'close');
   server.prependListener('request', (_req, res: ServerResponse) => res.setHeader('Connection', 'close'));
   const closed = new Promise<void>((resolve) => server.close(() => resolve()));
-  server.closeIdleConnections();
+  // A keep-alive connection whose answer went out before the drain began is idle once it is sent:
+  // close such connections as they become idle instead of waiting for their keep-alive timeout.
+  const sweeper = setInterval(() => server.closeIdleConnections(), 100);
+  void closed.finally(() => clearInterval(sweeper));
 
   let abandonedRequests = 0;
   if (!(await within(closed, deadline - Date.now()))) {
