@@ -11,6 +11,13 @@ const apiPort = process.env.PORT ?? '3030';
 export default defineConfig({
   root: path.join(root, 'web'),
   plugins: [react(), tailwindcss()],
+  // The client's import aliases; tsconfig.json's `paths` says the same to tsc and the lint.
+  resolve: {
+    alias: [
+      { find: /^@\//, replacement: `${path.join(root, 'web', 'src')}/` },
+      { find: /^@shared\//, replacement: `${path.join(root, 'shared')}/` },
+    ],
+  },
   build: { outDir: path.join(root, 'dist', 'web'), emptyOutDir: true },
   server: {
     host: '127.0.0.1',

@@ -1,4 +1,7 @@
+import { ANALYSIS_LIMITS } from '../shared/constants';
 import { buildFragments, resolveOptions, type FragmentSpan } from './fragments';
+import { AnalysisLimitError } from './limits';
+import { splitLines } from './lines';
 import { analyzerForLanguage, analyzerForPath, extensionOf, LANGUAGES } from './languages';
 import type { AnalyzeOptions, FileAnalysis, Fragment } from './types';
 
@@ -14,8 +17,9 @@ function describe(error: unknown): string {
 
 /**
  * Cuts one source file into fragments with their token identities and shingle sets.
- * Never throws on bad source: a file that cannot be parsed comes back with `error` set and no
- * fragments; a file parsed with recovered syntax errors keeps its fragments and reports
+ * Never throws on bad source: a file that cannot be parsed, or goes over one of the analysis
+ * bounds (ANALYSIS_LIMITS: nesting depth, fragments, tokens of nested fragments), comes back with
+ * `error` set (naming the bound) and no fragments; a file parsed with recovered syntax errors keeps its fragments and reports
  * `syntaxErrors`. Throws only on invalid options (a caller bug).
  *
  * @example
@@ -57,11 +61,11 @@ export function languageForPath(path: string): string | undefined {
 
 /** Removes the indentation every non-blank line shares, so a body pasted from deep inside a file parses. */
 function dedent(text: string): string {
-  const lines = text.split(/\r\n|\r|\n/);
+  const lines = splitLines(text);
   let common: string | undefined;
   for (const line of lines) {
     if (line.trim() === '') continue;
-    const indent = /^[ \t]*/.exec(line)![0];
+    const indent = /^[ \t]*/.exec(line)?.[0] ?? '';
     if (common === undefined || !indent.startsWith(common)) {
       let i = 0;
       while (common !== undefined && i < common.length && i < indent.length && common[i] === indent[i]) i++;
@@ -77,7 +81,9 @@ function dedent(text: string): string {
  * `language`; when functions make up most of its tokens they are the fragments, otherwise (a
  * pasted body, a few statements) the whole snippet is one fragment named `<snippet>`.
  * `minTokens` defaults to 1 here: whatever the user pasted is searched for.
- * Throws on an unknown language or a snippet the parser cannot read at all, saying which.
+ * Throws on an unknown language or a snippet the parser cannot read at all, saying which, and an
+ * AnalysisLimitError for a snippet over one of the analysis bounds (ANALYSIS_LIMITS, with at most
+ * `maxSnippetFragments` fragments).
  *
  * @example await analyzeSnippet('python', 'total = 0\nfor x in xs:\n    total += x') // one '<snippet>' fragment
  */
@@ -93,16 +99,17 @@ export async function analyzeSnippet(language: string, text: string, options?: A
   try {
     analysis = await analyzer.analyze(path, source, resolved);
   } catch (error) {
+    if (error instanceof AnalysisLimitError) throw error;
     throw new Error(`the snippet could not be parsed as ${language}: ${describe(error)}`);
   }
   const { tokens, spans } = analysis;
   const total = tokens.starts.length;
   const inside = tokensInOutermost(spans, tokens.starts);
   if (spans.length > 0 && inside >= total - inside) {
-    return buildFragments(source, tokens, spans, resolved);
+    return buildFragments(source, tokens, spans, resolved, ANALYSIS_LIMITS.maxSnippetFragments);
   }
   const whole: FragmentSpan = { name: '<snippet>', kind: 'function', start: 0, end: source.length };
-  return buildFragments(source, tokens, [whole], resolved);
+  return buildFragments(source, tokens, [whole], resolved, ANALYSIS_LIMITS.maxSnippetFragments);
 }
 
 /** How many tokens lie inside at least one span. */
@@ -114,8 +121,8 @@ function tokensInOutermost(spans: readonly FragmentSpan[], starts: readonly numb
   for (const span of sorted) {
     if (span.end <= coveredUntil) continue;
     const from = Math.max(span.start, coveredUntil);
-    while (i < starts.length && starts[i]! < from) i++;
-    while (i < starts.length && starts[i]! < span.end) {
+    while (i < starts.length && starts[i] < from) i++;
+    while (i < starts.length && starts[i] < span.end) {
       count++;
       i++;
     }

@@ -5,6 +5,8 @@
  */
 export { analyzeFile, analyzeSnippet, languageForPath } from './analyze';
 export { analyzeFiles, DEFAULT_TIMEOUT_MS, type AnalyzeFilesOptions } from './pool';
+export { analyzeSnippetInPool, closeSnippetPool, type SnippetOutcome, type SnippetPoolOptions } from './snippet-pool';
+export { AnalysisLimitError, type AnalysisLimit } from './limits';
 export {
   skipReason,
   directorySkipReason,

@@ -15,17 +15,18 @@ export interface AnalyzeFilesOptions extends AnalyzeOptions, SkipOptions {
   timeoutMs?: number;
 }
 
-/** Default per-file time limit. A 1 MiB file parses in well under a second. */
+/** Default per-file time limit: far above what a file under the size cap needs (bench:analyze). */
 export const DEFAULT_TIMEOUT_MS = 20_000;
 
-const WORKER_URL = new URL('./worker.mjs', import.meta.url);
+/** The pool threads' entry (worker.mjs), shared by analyzeFiles and the snippet pool. */
+export const WORKER_URL = new URL('./worker.mjs', import.meta.url);
 
 /**
  * V8 heap limits of a pool thread. The young generation is larger than V8's default (about 48 MB,
  * 16 MB semi-spaces): a parse allocates a whole syntax tree and token list that live until the
  * file is done, and with small semi-spaces most of it is copied by several scavenges before it
- * dies. 192 MB (64 MB semi-spaces) measured about a tenth faster on the bench corpus; the space is
- * only taken when a file needs it.
+ * dies; the README's Measured section has what the larger one saved. The space is only taken
+ * when a file needs it.
  *
  * @example new Worker(url, { resourceLimits: POOL_RESOURCE_LIMITS })
  */
@@ -54,14 +55,19 @@ export async function analyzeFiles(
 
   const skipped: SkippedFile[] = [];
   const tasks: AnalyzeTask[] = [];
+  const languages = new Set<string>();
   for (const file of files) {
     const { reason, text } = inspectFile(file.path, file.content, { ignore, maxFileBytes });
     if (reason !== undefined || text === undefined) {
       skipped.push({ path: file.path, reason: reason ?? 'not readable' });
-    } else if (!analyzerForPath(file.path)) {
-      skipped.push({ path: file.path, reason: noAnalyzerReason(file.path) });
     } else {
-      tasks.push({ path: file.path, text, options: analyzeOptions });
+      const language = analyzerForPath(file.path);
+      if (!language) {
+        skipped.push({ path: file.path, reason: noAnalyzerReason(file.path) });
+      } else {
+        languages.add(language.id);
+        tasks.push({ path: file.path, text, options: analyzeOptions });
+      }
     }
   }
   if (tasks.length === 0) return { files: [], skipped };
@@ -79,8 +85,8 @@ export async function analyzeFiles(
   try {
     // Load the analyzers in every thread first, so that a file's time limit measures its own
     // parse and not the thread's start-up.
-    const languages = [...new Set(tasks.map((task) => analyzerForPath(task.path)!.id))];
-    await Promise.all(Array.from({ length: threads }, () => pool.run({ warm: languages })));
+    const warm = [...languages];
+    await Promise.all(Array.from({ length: threads }, () => pool.run({ warm })));
     // Never more files in flight than threads: a file's clock starts when a thread takes it,
     // not while it waits in the queue behind others.
     const results: FileAnalysis[] = new Array(tasks.length);
@@ -88,7 +94,7 @@ export async function analyzeFiles(
     const lane = async () => {
       while (next < tasks.length) {
         const i = next++;
-        results[i] = await runOne(pool, tasks[i]!, timeoutMs);
+        results[i] = await runOne(pool, tasks[i], timeoutMs);
       }
     };
     await Promise.all(Array.from({ length: threads }, lane));

@@ -21,8 +21,8 @@ export function shingleSet(tokens: readonly string[], k: number): string[] {
   const counts = new Map<string, number>();
   const out: string[] = [];
   for (let i = 0; i + k <= tokens.length; i++) {
-    let s = tokens[i]!;
-    for (let j = 1; j < k; j++) s += SHINGLE_SEPARATOR + tokens[i + j]!;
+    let s = tokens[i];
+    for (let j = 1; j < k; j++) s += SHINGLE_SEPARATOR + tokens[i + j];
     const seen = (counts.get(s) ?? 0) + 1;
     counts.set(s, seen);
     out.push(seen === 1 ? s : `${s}#${seen}`);
@@ -46,7 +46,7 @@ export function jaccard(a: readonly string[], b: readonly string[]): number {
       shared++;
       i++;
       j++;
-    } else if (a[i]! < b[j]!) i++;
+    } else if (a[i] < b[j]) i++;
     else j++;
   }
   return shared / (a.length + b.length - shared);

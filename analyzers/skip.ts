@@ -56,9 +56,9 @@ function ignoreFor(lines: readonly string[]): Ignore {
 export function defaultIgnoreReason(path: string): string | undefined {
   const segments = path.split('/');
   for (let i = 0; i < segments.length - 1; i++) {
-    if (DEFAULT_IGNORED_DIRECTORIES.has(segments[i]!)) return `default ignore: ${segments[i]}/ directory`;
+    if (DEFAULT_IGNORED_DIRECTORIES.has(segments[i])) return `default ignore: ${segments[i]}/ directory`;
   }
-  const base = segments[segments.length - 1]!;
+  const base = segments[segments.length - 1];
   if (LOCK_FILES.has(base)) return 'default ignore: lock file';
   if (MINIFIED_NAME.test(base)) return 'minified file (by name)';
   return undefined;

@@ -43,7 +43,7 @@ export function emptyTokenStream(): TokenStream {
  */
 export function pushToken(stream: TokenStream, start: number, end: number, text: string, cls: TokenClass): void {
   const n = stream.starts.length;
-  if (n > 0 && start < stream.starts[n - 1]!) {
+  if (n > 0 && start < stream.starts[n - 1]) {
     throw new Error(`token at offset ${start} arrived after a token at offset ${stream.starts[n - 1]}`);
   }
   stream.starts.push(start);
@@ -58,7 +58,7 @@ export function lowerBound(starts: readonly number[], offset: number): number {
   let hi = starts.length;
   while (lo < hi) {
     const mid = (lo + hi) >>> 1;
-    if (starts[mid]! < offset) lo = mid + 1;
+    if (starts[mid] < offset) lo = mid + 1;
     else hi = mid;
   }
   return lo;
@@ -77,4 +77,5 @@ export function tokenForm(text: string, cls: TokenClass, normalize: boolean): st
   return NEEDS_ESCAPE.test(text) ? `\u001e${JSON.stringify(text)}` : text;
 }
 
+// eslint-disable-next-line no-control-regex -- control characters are exactly what must be escaped
 const NEEDS_ESCAPE = /[\u0000-\u001f]|#\d+$/;

@@ -18,5 +18,6 @@ export default async function analyze(task) {
   loaded ??= load();
   const module = await loaded;
   if (task.warm) return module.warmUp(task.warm);
+  if (task.snippet) return module.runSnippetTask(task);
   return module.runTask(task);
 }

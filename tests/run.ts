@@ -10,8 +10,9 @@ import { createDatabaseIfMissing, dropDatabase, ensureDatabaseServer } from '../
 
 /**
  * `npm test`: everything the suites need on a fresh machine, then every suite.
- * Chromium from Debian (installed when missing and root), the local PostgreSQL with a database of
- * its own for this run (dropped afterwards), the built client for the browser tests, then vitest.
+ * The type check and the lint first (on a full run), then Chromium from Debian (installed when
+ * missing and root), the local PostgreSQL with a database of its own for this run (dropped
+ * afterwards), the built client for the browser tests, then vitest.
  */
 const CHROMIUM = '/usr/bin/chromium';
 
@@ -26,7 +27,33 @@ function ensureChromium() {
   execFileSync('apt-get', ['install', '-y', '--no-install-recommends', 'chromium'], { stdio: 'inherit', env });
 }
 
+/**
+ * The static checks, each named when it fails. A filtered run (`npm test -- tests/x`) skips them so
+ * one test file can be run while another part of the tree is half-way through a change.
+ */
+function staticChecks(args: string[]): boolean {
+  if (args.some((arg) => !arg.startsWith('-'))) {
+    console.log('Filtered run: type check and lint skipped (`npm run typecheck`, `npm run lint`).');
+    return true;
+  }
+  const checks = [
+    { name: 'type check', command: 'tsc', args: ['-p', '.'] },
+    { name: 'lint', command: 'eslint', args: ['.'] },
+  ];
+  for (const check of checks) {
+    console.log(`Running the ${check.name}: ${check.command} ${check.args.join(' ')}`);
+    const run = spawnSync(`${projectRoot}/node_modules/.bin/${check.command}`, check.args, { stdio: 'inherit', cwd: projectRoot });
+    if (run.status !== 0) {
+      console.error(`npm test stopped: the ${check.name} failed (${check.command} ${check.args.join(' ')}); see above.`);
+      return false;
+    }
+  }
+  return true;
+}
+
 async function main(): Promise<number> {
+  const args = process.argv.slice(2);
+  if (!staticChecks(args)) return 1;
   ensureChromium();
   const external = process.env.DATABASE_URL;
   const testDatabase = `doublet_test_${Date.now()}`;
@@ -47,7 +74,7 @@ async function main(): Promise<number> {
   const summaryFile = path.join(os.tmpdir(), `doublet-test-summary-${process.pid}.json`);
   const vitest = spawnSync(
     `${projectRoot}/node_modules/.bin/vitest`,
-    ['run', '--reporter=default', '--reporter=json', `--outputFile.json=${summaryFile}`, ...process.argv.slice(2)],
+    ['run', '--reporter=default', '--reporter=json', `--outputFile.json=${summaryFile}`, ...args],
     // vite's build() set NODE_ENV=production in this process; the suites run as tests (React's act() needs it)
     { stdio: 'inherit', cwd: projectRoot, env: { ...process.env, NODE_ENV: 'test', DATABASE_URL: url, DOUBLET_TEST: '1' } },
   );

@@ -1,5 +1,6 @@
 import { parse, type ParserPlugin } from '@babel/parser';
 import type { FragmentSpan, ResolvedOptions } from '../fragments';
+import { checkNestingDepth } from '../limits';
 import { emptyTokenStream, pushToken, type TokenClass } from '../tokens';
 import type { FragmentKind } from '../types';
 import { BABEL_CHILD_KEYS } from './babel-child-keys';
@@ -174,20 +175,23 @@ export function analyzeWithBabel(
   const spans: FragmentSpan[] = [];
   const dropped: Array<[number, number]> = [];
   const dropTypes = dialect.typescript && !options.includeTypeAnnotations;
-  // An explicit stack, not recursion: nesting depth is the input's to choose. Four parallel
-  // stacks instead of one object per node, since a large file has a few hundred thousand nodes.
+  // An explicit stack, not recursion: nesting depth is the input's to choose. Parallel stacks
+  // instead of one object per node, since a large file has a few hundred thousand nodes.
+  // `depths` counts the functions and classes around a node (the nesting limit, limits.ts).
   const nodes: BabelNode[] = [ast];
   const parents: Array<BabelNode | undefined> = [undefined];
   const classes: Array<string | undefined> = [undefined];
   const objects: Array<string | undefined> = [undefined];
+  const depths: number[] = [0];
 
-  while (nodes.length > 0) {
-    const node = nodes.pop()!;
+  for (let node = nodes.pop(); node !== undefined; node = nodes.pop()) {
     const parent = parents.pop();
     const className = classes.pop();
     const objectName = objects.pop();
+    const depth = depths.pop() ?? 0;
     let childClass = className;
     let childObject = objectName;
+    let childDepth = depth;
 
     if (dropTypes) collectTypeRanges(node, text, dropped);
 
@@ -195,6 +199,7 @@ export function analyzeWithBabel(
       case 'ClassDeclaration':
       case 'ClassExpression':
         childClass = nameOf(node.id, text) ?? nameFromParent(parent, node, text, objectName, className) ?? '<anonymous>';
+        childDepth = depth + 1;
         break;
       case 'ObjectExpression':
         childObject = nameFromParent(parent, node, text, objectName, className);
@@ -206,6 +211,7 @@ export function analyzeWithBabel(
         const name = own ?? nameFromParent(parent, node, text, objectName, className) ?? '<anonymous>';
         const kind: FragmentKind = node.type === 'ArrowFunctionExpression' ? 'arrow' : 'function';
         spans.push({ name, kind, start: node.start, end: node.end });
+        childDepth = depth + 1;
         break;
       }
       case 'ObjectMethod':
@@ -215,17 +221,19 @@ export function analyzeWithBabel(
         const kind: FragmentKind =
           node.kind === 'constructor' ? 'constructor' : node.kind === 'get' ? 'getter' : node.kind === 'set' ? 'setter' : 'method';
         spans.push({ name: qualify(owner, keyName(node, text)), kind, start: node.start, end: node.end });
+        childDepth = depth + 1;
         break;
       }
       default:
         break;
     }
+    if (childDepth > depth) checkNestingDepth(childDepth);
 
     // Children are pushed in reverse so they pop in source order (not needed for correctness:
     // spans are sorted later, but it keeps the traversal predictable when debugging).
     const keys = CHILD_KEYS.get(node.type) ?? allChildKeys(node);
     for (let k = keys.length - 1; k >= 0; k--) {
-      const value = node[keys[k]!];
+      const value = node[keys[k]];
       if (Array.isArray(value)) {
         for (let i = value.length - 1; i >= 0; i--) {
           const item: unknown = value[i];
@@ -234,6 +242,7 @@ export function analyzeWithBabel(
             parents.push(node);
             classes.push(childClass);
             objects.push(childObject);
+            depths.push(childDepth);
           }
         }
       } else if (isNode(value)) {
@@ -241,6 +250,7 @@ export function analyzeWithBabel(
         parents.push(node);
         classes.push(childClass);
         objects.push(childObject);
+        depths.push(childDepth);
       }
     }
   }
@@ -253,8 +263,8 @@ export function analyzeWithBabel(
     if (typeof token.type === 'string') continue; // CommentLine / CommentBlock
     const label = token.type.label;
     if (label === 'eof') continue;
-    while (d < dropped.length && dropped[d]![0] <= token.start) {
-      dropEnd = Math.max(dropEnd, dropped[d]![1]);
+    while (d < dropped.length && dropped[d][0] <= token.start) {
+      dropEnd = Math.max(dropEnd, dropped[d][1]);
       d++;
     }
     if (token.start < dropEnd) continue;

@@ -2,6 +2,7 @@ import fs from 'node:fs';
 import { createRequire } from 'node:module';
 import { Language, Parser, type Node } from 'web-tree-sitter';
 import type { FragmentSpan, ResolvedOptions } from '../fragments';
+import { checkNestingDepth } from '../limits';
 import { emptyTokenStream, pushToken, type TokenClass } from '../tokens';
 import type { FragmentKind } from '../types';
 import type { LanguageAnalysis, LanguageAnalyzer } from './language';
@@ -73,7 +74,11 @@ interface Scope {
 /** Joins the contiguous run of class names on top of the scope stack: `Outer.Inner`. */
 function ownerOf(scopes: readonly Scope[]): string | undefined {
   const names: string[] = [];
-  for (let i = scopes.length - 1; i >= 0 && scopes[i]!.className !== undefined; i--) names.unshift(scopes[i]!.className!);
+  for (let i = scopes.length - 1; i >= 0; i--) {
+    const name = scopes[i].className;
+    if (name === undefined) break;
+    names.unshift(name);
+  }
   return names.length > 0 ? names.join('.') : undefined;
 }
 
@@ -92,13 +97,13 @@ export async function analyzeWithTreeSitter(spec: TreeSitterSpec, text: string):
       const type = cursor.nodeType;
       const start = cursor.startIndex;
       const end = cursor.endIndex;
-      while (scopes.length > 0 && scopes[scopes.length - 1]!.end <= start && end > start) scopes.pop();
+      while (scopes.length > 0 && scopes[scopes.length - 1].end <= start && end > start) scopes.pop();
       let descend = true;
       if (type === 'ERROR') errors++;
       if (spec.comments.has(type)) {
         descend = false;
       } else if (Object.hasOwn(spec.literals, type)) {
-        if (end > start) pushToken(tokens, start, end, text.slice(start, end), spec.literals[type]!);
+        if (end > start) pushToken(tokens, start, end, text.slice(start, end), spec.literals[type]);
         descend = false;
       } else if (spec.functions.has(type) && cursor.nodeIsNamed) {
         // (named only: Python's `lambda` keyword is a leaf of the same type as the lambda node)
@@ -109,10 +114,12 @@ export async function analyzeWithTreeSitter(spec: TreeSitterSpec, text: string):
         if (info) {
           spans.push({ name: info.name, kind: info.kind, start: info.start ?? start, end });
           scopes.push({ end, className: undefined });
+          checkNestingDepth(scopes.length);
         }
       } else if (Object.hasOwn(spec.containers, type) && cursor.nodeIsNamed) {
-        const name = spec.containers[type]!(cursor.currentNode) ?? '<anonymous>';
+        const name = spec.containers[type](cursor.currentNode) ?? '<anonymous>';
         scopes.push({ end, className: name });
+        checkNestingDepth(scopes.length);
       }
       if (descend && !cursor.gotoFirstChild()) {
         // A leaf. Zero-width leaves are tokens the parser invented to recover (MISSING) or

@@ -11,7 +11,7 @@ import { createRequire } from 'node:module';
 import os from 'node:os';
 import path from 'node:path';
 import { Worker } from 'node:worker_threads';
-import { analyzeFile, analyzeFiles } from '../../analyzers';
+import { analyzeFiles } from '../../analyzers';
 import { POOL_RESOURCE_LIMITS } from '../../analyzers/pool';
 import type { SourceFile } from '../../analyzers/types';
 
@@ -109,11 +109,11 @@ async function main() {
   const seconds = (performance.now() - started) / 1000;
   const poolFragments = result.files.reduce((sum, f) => sum + f.fragments.length, 0);
   const errors = result.files.filter((f) => f.error).length;
-  const analysedBytes = totalBytes - result.skipped.reduce((sum, s) => sum + (files.find((f) => f.path === s.path)?.content.byteLength ?? 0), 0);
+  const analyzedBytes = totalBytes - result.skipped.reduce((sum, s) => sum + (files.find((f) => f.path === s.path)?.content.byteLength ?? 0), 0);
   console.log(
-    `pool:      ${(mb(analysedBytes) / seconds).toFixed(2)} MB/s over ${cores} threads = ${(mb(analysedBytes) / seconds / cores).toFixed(2)} MB/s per core, ` +
+    `pool:      ${(mb(analyzedBytes) / seconds).toFixed(2)} MB/s over ${cores} threads = ${(mb(analyzedBytes) / seconds / cores).toFixed(2)} MB/s per core, ` +
       `${Math.round(poolFragments / seconds)} fragments/s (${seconds.toFixed(2)} s with pool start-up; ${result.skipped.length} skipped, ${errors} errors); ` +
-      `start-up excluded: ${(mb(analysedBytes) / Math.max(0.001, seconds - startup) / cores).toFixed(2)} MB/s per core`,
+      `start-up excluded: ${(mb(analyzedBytes) / Math.max(0.001, seconds - startup) / cores).toFixed(2)} MB/s per core`,
   );
   console.log(`load average after: ${os.loadavg().map((l) => l.toFixed(2)).join(', ')}`);
   for (const s of result.skipped.slice(0, 5)) console.log(`  skipped ${s.path}: ${s.reason}`);

@@ -10,7 +10,8 @@ import { migrateUp } from '../db/migrate';
 import { createDatabaseIfMissing, dropDatabase, ensureDatabaseServer } from '../db/postgres';
 import { loadConfig } from '../config';
 import { parseThreshold } from '../matching/threshold';
-import { random, RELABEL, VOCABULARY, ZIPF_TABLE, zipfTable } from './synthetic';
+import { formatBytes, formatCount, formatMs } from './format';
+import { Collection, mix, random } from './synthetic';
 
 /**
  * `npm run bench:index [-- --sizes 200000,1000000 --keep --seed 7 --queries 300 --time-limit 1140]`: the prefix index
@@ -45,107 +46,6 @@ const PROBE_BATCH = 10_000;
 const FIND_THRESHOLD = parseThreshold('0.8');
 /** Time kept for the measurements after the last load (the 10k batch and the find-copies queries). */
 const MEASURE_RESERVE_MS = 150_000;
-
-/** A per-item seed: the same (seed, salt, i) always gives the same stream. */
-function mix(seed: number, salt: number, i: number): number {
-  let h = Math.imul(seed ^ 0x85ebca6b, 0xc2b2ae35) ^ Math.imul(salt + 1, 0x27d4eb2f) ^ Math.imul(i + 1, 0x165667b1);
-  h = Math.imul(h ^ (h >>> 16), 0x85ebca6b);
-  h = Math.imul(h ^ (h >>> 13), 0xc2b2ae35);
-  return (h ^ (h >>> 16)) >>> 0;
-}
-
-type Kind = 'original' | 'near' | 'exact';
-
-/** The synthetic collection: set i as a shingle list, from (seed, i) alone. */
-export class Collection {
-  private readonly table = zipfTable();
-
-  constructor(private readonly seed: number) {}
-
-  private draw(next: () => number): number {
-    return Math.imul(this.table[(next() * ZIPF_TABLE) | 0], RELABEL) & (VOCABULARY - 1);
-  }
-
-  kind(i: number): Kind {
-    if (i < 100) return 'original';
-    const x = random(mix(this.seed, 1, i))();
-    return x < 0.1 ? 'near' : x < 0.12 ? 'exact' : 'original';
-  }
-
-  /** Token ids of an original set (with repeats, as drawn). */
-  private originalTokens(salt: number, i: number): number[] {
-    const next = random(mix(this.seed, salt, i));
-    const gauss = Math.sqrt(-2 * Math.log(1 - next())) * Math.cos(2 * Math.PI * next());
-    const size = Math.max(8, Math.min(800, Math.round(48 * Math.exp(0.55 * gauss))));
-    const tokens: number[] = [];
-    for (let k = 0; k < size; k++) tokens.push(this.draw(next));
-    return tokens;
-  }
-
-  /** The source of a copy: an earlier original (copies never copy copies, to keep this cheap). */
-  private source(i: number): number {
-    const next = random(mix(this.seed, 3, i));
-    let j = Math.floor(next() * i);
-    while (this.kind(j) !== 'original') j = Math.floor(next() * i);
-    return j;
-  }
-
-  /** Drops or replaces up to `share` of the tokens: an edited copy. */
-  private edit(tokens: number[], next: () => number, share: number): number[] {
-    const copy = [...tokens];
-    const edits = Math.floor(next() * share * copy.length);
-    for (let e = 0; e < edits; e++) {
-      const at = Math.floor(next() * copy.length);
-      if (next() < 0.5 && copy.length > 8) copy.splice(at, 1);
-      else copy[at] = this.draw(next);
-    }
-    return copy;
-  }
-
-  private tokens(i: number): number[] {
-    switch (this.kind(i)) {
-      case 'original':
-        return this.originalTokens(2, i);
-      case 'exact':
-        return this.originalTokens(2, this.source(i));
-      case 'near':
-        return this.edit(this.originalTokens(2, this.source(i)), random(mix(this.seed, 4, i)), 0.2);
-    }
-  }
-
-  /** Set i of the collection. */
-  set(i: number): string[] {
-    return shingleSet(this.tokens(i));
-  }
-
-  /** A near-copy (0–15% edited) of indexed set i, as someone would paste into find copies. */
-  nearQuery(i: number, q: number): string[] {
-    return shingleSet(this.edit(this.tokens(i), random(mix(this.seed, 5, q)), 0.15));
-  }
-
-  /** A set drawn like an original but indexed nowhere. */
-  freshQuery(q: number): string[] {
-    return shingleSet(this.originalTokens(6, q));
-  }
-
-  /** A fresh set for the probe-rate batch: the same mix as the collection, sources among indexed sets. */
-  releaseSet(q: number, indexed: number): string[] {
-    const next = random(mix(this.seed, 7, q));
-    const x = next();
-    if (x < 0.1) return shingleSet(this.edit(this.tokens(Math.floor(next() * indexed)), next, 0.2));
-    return shingleSet(this.originalTokens(8, q));
-  }
-}
-
-/** Token ids → shingle strings; the n-th repeat of a shingle becomes `s<id>#n`, so the set keeps multiset counts. */
-function shingleSet(tokens: number[]): string[] {
-  const seen = new Map<number, number>();
-  return tokens.map((t) => {
-    const n = (seen.get(t) ?? 0) + 1;
-    seen.set(t, n);
-    return n === 1 ? `s${t}` : `s${t}#${n}`;
-  });
-}
 
 const withHash = (shingles: string[]) => ({ hash: setHash(shingles), shingles });
 
@@ -292,18 +192,6 @@ interface Stage {
   sizes: RelationSize[];
   storedSets: number;
   storedPairs: number;
-}
-
-function formatCount(n: number): string {
-  return Math.round(n).toLocaleString('en-US');
-}
-
-function formatMs(ms: number): string {
-  return ms >= 10_000 ? `${(ms / 1000).toFixed(0)} s` : ms >= 1000 ? `${(ms / 1000).toFixed(1)} s` : ms >= 10 ? `${ms.toFixed(0)} ms` : `${ms.toFixed(1)} ms`;
-}
-
-function formatBytes(n: number): string {
-  return n >= 1 << 30 ? `${(n / (1 << 30)).toFixed(2)} GB` : `${(n / (1 << 20)).toFixed(0)} MB`;
 }
 
 const rate = (count: number, ms: number) => formatCount(count / (ms / 1000));

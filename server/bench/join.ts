@@ -4,9 +4,10 @@ import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import { analyzeFiles } from '../../analyzers';
 import { readFolder } from '../ingest/folder';
-import { newJoinStats, selfJoin, type Algorithm, type JoinProfile } from '../matching/join';
+import { newJoinStats, selfJoin, type JoinMethod, type JoinProfile } from '../matching/join';
 import { rankIntegerSets, rankShingles } from '../matching/order';
 import { parseThreshold } from '../matching/threshold';
+import { formatCount, formatMs } from './format';
 import { random, RELABEL, VOCABULARY, ZIPF_TABLE, zipfTable } from './synthetic';
 
 /**
@@ -37,7 +38,7 @@ import { random, RELABEL, VOCABULARY, ZIPF_TABLE, zipfTable } from './synthetic'
 const DEFAULT_SIZES = [10_000, 20_000, 100_000, 1_000_000];
 /** Beyond these sizes a method takes minutes (it is quadratic in the sets of similar size). */
 const QUADRATIC_LIMIT = 20_000;
-const METHODS: Algorithm[] = ['brute', 'length', 'prefix', 'position', 'bitmap', 'auto'];
+const METHODS: JoinMethod[] = ['brute', 'length', 'prefix', 'position', 'bitmap', 'auto'];
 
 /**
  * The synthetic collection: `count` sets of token ids (not yet ranked). Token ids are scrambled
@@ -81,7 +82,7 @@ function generateCollection(count: number, seed: number): Int32Array[] {
 
 interface CellResult {
   size: number;
-  algorithm: Algorithm;
+  method: JoinMethod;
   generateMs: number;
   rankMs: number;
   joinMs: number;
@@ -97,13 +98,13 @@ interface CellResult {
 }
 
 /** One cell, in this process: generate (or analyse real folders), rank, join; print one JSON line. */
-async function runCell(size: number, algorithm: Algorithm, threshold: string, seed: number, real?: string[]): Promise<CellResult> {
+async function runCell(size: number, method: JoinMethod, threshold: string, seed: number, real?: string[]): Promise<CellResult> {
   let start = performance.now();
   let ranked: Int32Array[];
   let generateMs: number;
   let rankMs: number;
   if (real) {
-    const shingleSets = await analyseFolders(real);
+    const shingleSets = await analyzeFolders(real);
     generateMs = performance.now() - start;
     start = performance.now();
     ranked = rankShingles(shingleSets).ranked;
@@ -124,12 +125,12 @@ async function runCell(size: number, algorithm: Algorithm, threshold: string, se
   const profile: JoinProfile = { indexMs: 0, probeMs: 0, verifyMs: 0 };
   start = performance.now();
   const cpu = process.cpuUsage();
-  selfJoin(ranked, parseThreshold(threshold), { algorithm, stats, profile: algorithm === 'brute' ? undefined : profile });
+  selfJoin(ranked, parseThreshold(threshold), { method, stats, profile: method === 'brute' ? undefined : profile });
   const joinMs = performance.now() - start;
   const { user, system } = process.cpuUsage(cpu);
   return {
     size,
-    algorithm,
+    method,
     generateMs,
     rankMs,
     joinMs,
@@ -146,22 +147,14 @@ async function runCell(size: number, algorithm: Algorithm, threshold: string, se
  * Real shingle sets: the functions (≥ 50 tokens, 3-shingles) of the given folders, analysed by
  * the analyzers exactly as `doublet scan` does.
  */
-async function analyseFolders(folders: string[]): Promise<string[][]> {
+async function analyzeFolders(folders: string[]): Promise<string[][]> {
   const sets: string[][] = [];
   for (const folder of folders) {
     const { files } = await readFolder(folder);
-    const analysed = await analyzeFiles(files, { minTokens: 50, shingleSize: 3 });
-    for (const file of analysed.files) for (const fragment of file.fragments) sets.push(fragment.shingles);
+    const analyzed = await analyzeFiles(files, { minTokens: 50, shingleSize: 3 });
+    for (const file of analyzed.files) for (const fragment of file.fragments) sets.push(fragment.shingles);
   }
   return sets;
-}
-
-function formatMs(ms: number): string {
-  return ms >= 10_000 ? `${(ms / 1000).toFixed(1)} s` : ms >= 1000 ? `${(ms / 1000).toFixed(2)} s` : `${ms.toFixed(0)} ms`;
-}
-
-function formatCount(n: number): string {
-  return n.toLocaleString('en-US');
 }
 
 async function main(): Promise<void> {
@@ -182,25 +175,25 @@ async function main(): Promise<void> {
   const threshold = values.threshold!;
   if (values.child) {
     const size = Number(values.sizes);
-    const algorithm = values.methods as Algorithm;
-    process.stdout.write(`${JSON.stringify(await runCell(size, algorithm, threshold, seed, real))}\n`);
+    const method = values.methods as JoinMethod;
+    process.stdout.write(`${JSON.stringify(await runCell(size, method, threshold, seed, real))}\n`);
     return;
   }
   // With --real the collection is the analysed folders: one "size", whatever it turns out to be.
   const sizes = real ? [0] : values.sizes ? values.sizes.split(',').map(Number) : DEFAULT_SIZES;
-  const methods = values.methods ? (values.methods.split(',') as Algorithm[]) : METHODS;
+  const methods = values.methods ? (values.methods.split(',') as JoinMethod[]) : METHODS;
   const quadraticLimit = values['quadratic-limit'] ? Number(values['quadratic-limit']) : QUADRATIC_LIMIT;
   const self = fileURLToPath(import.meta.url);
   const rows: CellResult[] = [];
   const skipped: string[] = [];
   process.stderr.write(`join benchmark: threshold ${threshold}, seed ${seed}, sizes ${sizes.join(', ')}\n`);
   for (const size of sizes) {
-    for (const algorithm of methods) {
-      if (!real && (algorithm === 'brute' || algorithm === 'length') && size > quadraticLimit) {
-        skipped.push(`${algorithm} at ${formatCount(size)}`);
+    for (const method of methods) {
+      if (!real && (method === 'brute' || method === 'length') && size > quadraticLimit) {
+        skipped.push(`${method} at ${formatCount(size)}`);
         continue;
       }
-      process.stderr.write(`  ${formatCount(size)} sets, ${algorithm}… `);
+      process.stderr.write(`  ${formatCount(size)} sets, ${method}… `);
       const child = spawnSync(
         process.execPath,
         [
@@ -212,7 +205,7 @@ async function main(): Promise<void> {
           '--sizes',
           String(size),
           '--methods',
-          algorithm,
+          method,
           '--threshold',
           threshold,
           '--seed',
@@ -242,18 +235,18 @@ async function main(): Promise<void> {
   out.push('| sets | shingles | method | join time | join CPU | vs brute | candidates | verified | results | peak RSS | RSS before join | index / probe / verify |');
   out.push('| ---: | ---: | --- | ---: | ---: | ---: | ---: | ---: | ---: | ---: | ---: | --- |');
   for (const row of rows) {
-    const brute = rows.find((r) => r.size === row.size && r.algorithm === 'brute');
-    const speedup = brute && row.algorithm !== 'brute' ? `${(brute.joinMs / row.joinMs).toFixed(0)}×` : '';
+    const brute = rows.find((r) => r.size === row.size && r.method === 'brute');
+    const speedup = brute && row.method !== 'brute' ? `${(brute.joinMs / row.joinMs).toFixed(0)}×` : '';
     const { indexMs, probeMs, verifyMs } = row.profile;
     const phases = indexMs + probeMs + verifyMs > 0 ? `${formatMs(indexMs)} / ${formatMs(probeMs)} / ${formatMs(verifyMs)}` : '';
     out.push(
-      `| ${formatCount(row.size)} | ${formatCount(row.shingles)} | ${row.algorithm} | ${formatMs(row.joinMs)} | ${formatMs(row.joinCpuMs)} | ${speedup} | ${formatCount(row.candidates)} | ` +
+      `| ${formatCount(row.size)} | ${formatCount(row.shingles)} | ${row.method} | ${formatMs(row.joinMs)} | ${formatMs(row.joinCpuMs)} | ${speedup} | ${formatCount(row.candidates)} | ` +
         `${formatCount(row.verified)} | ${formatCount(row.results)} | ${row.peakRssMb.toFixed(0)} MB | ${row.beforeJoinRssMb.toFixed(0)} MB | ${phases} |`,
     );
   }
   out.push('');
   if (skipped.length > 0) out.push(`Not run (quadratic, minutes or more past ${formatCount(quadraticLimit)} sets): ${skipped.join(', ')}.`);
-  const setup = rows.filter((r) => r.algorithm === 'auto').map((r) => `${formatCount(r.size)}: generate ${formatMs(r.generateMs)}, rank ${formatMs(r.rankMs)}`);
+  const setup = rows.filter((r) => r.method === 'auto').map((r) => `${formatCount(r.size)}: generate ${formatMs(r.generateMs)}, rank ${formatMs(r.rankMs)}`);
   if (setup.length > 0) out.push(`Outside the join time: ${setup.join('; ')}${real ? ' (generate = read and analyse the folders)' : ''}.`);
   process.stdout.write(`${out.join('\n')}\n`);
 }

@@ -1,6 +1,7 @@
 /**
- * Pieces shared by the benchmarks' synthetic collections: a seedable random stream and a Zipf
- * table over a fixed vocabulary (token r drawn with probability proportional to 1/(r+1)).
+ * The benchmarks' synthetic data: a seedable random stream, a Zipf table over a fixed vocabulary
+ * (token r drawn with probability proportional to 1/(r+1)), and the index benchmark's collection
+ * of shingle sets (Collection).
  */
 
 /** Token ids a collection draws from. */
@@ -37,4 +38,114 @@ export function zipfTable(): Int32Array {
   // Rounding can leave a few slots at the end: give them to the rarest ids.
   for (; filled < ZIPF_TABLE; filled++) table[filled] = VOCABULARY - 1 - (filled % 1024);
   return table;
+}
+
+/**
+ * A per-item seed: the same (seed, salt, i) always gives the same stream.
+ *
+ * @example random(mix(7, 1, 42))() // the same number on every run
+ */
+export function mix(seed: number, salt: number, i: number): number {
+  let h = Math.imul(seed ^ 0x85ebca6b, 0xc2b2ae35) ^ Math.imul(salt + 1, 0x27d4eb2f) ^ Math.imul(i + 1, 0x165667b1);
+  h = Math.imul(h ^ (h >>> 16), 0x85ebca6b);
+  h = Math.imul(h ^ (h >>> 13), 0xc2b2ae35);
+  return (h ^ (h >>> 16)) >>> 0;
+}
+
+type Kind = 'original' | 'near' | 'exact';
+
+/**
+ * The index benchmark's synthetic collection: set i as a shingle list, from (seed, i) alone, so a
+ * stage generates its sets on the fly and never holds the whole collection (see clone-index.ts).
+ *
+ * @example new Collection(7).set(0) // ['s123', 's77', 's123#2', …]
+ */
+export class Collection {
+  private readonly table = zipfTable();
+
+  constructor(private readonly seed: number) {}
+
+  private draw(next: () => number): number {
+    return Math.imul(this.table[(next() * ZIPF_TABLE) | 0], RELABEL) & (VOCABULARY - 1);
+  }
+
+  kind(i: number): Kind {
+    if (i < 100) return 'original';
+    const x = random(mix(this.seed, 1, i))();
+    return x < 0.1 ? 'near' : x < 0.12 ? 'exact' : 'original';
+  }
+
+  /** Token ids of an original set (with repeats, as drawn). */
+  private originalTokens(salt: number, i: number): number[] {
+    const next = random(mix(this.seed, salt, i));
+    const gauss = Math.sqrt(-2 * Math.log(1 - next())) * Math.cos(2 * Math.PI * next());
+    const size = Math.max(8, Math.min(800, Math.round(48 * Math.exp(0.55 * gauss))));
+    const tokens: number[] = [];
+    for (let k = 0; k < size; k++) tokens.push(this.draw(next));
+    return tokens;
+  }
+
+  /** The source of a copy: an earlier original (copies never copy copies, to keep this cheap). */
+  private source(i: number): number {
+    const next = random(mix(this.seed, 3, i));
+    let j = Math.floor(next() * i);
+    while (this.kind(j) !== 'original') j = Math.floor(next() * i);
+    return j;
+  }
+
+  /** Drops or replaces up to `share` of the tokens: an edited copy. */
+  private edit(tokens: number[], next: () => number, share: number): number[] {
+    const copy = [...tokens];
+    const edits = Math.floor(next() * share * copy.length);
+    for (let e = 0; e < edits; e++) {
+      const at = Math.floor(next() * copy.length);
+      if (next() < 0.5 && copy.length > 8) copy.splice(at, 1);
+      else copy[at] = this.draw(next);
+    }
+    return copy;
+  }
+
+  private tokens(i: number): number[] {
+    switch (this.kind(i)) {
+      case 'original':
+        return this.originalTokens(2, i);
+      case 'exact':
+        return this.originalTokens(2, this.source(i));
+      case 'near':
+        return this.edit(this.originalTokens(2, this.source(i)), random(mix(this.seed, 4, i)), 0.2);
+    }
+  }
+
+  /** Set i of the collection. */
+  set(i: number): string[] {
+    return shingleStrings(this.tokens(i));
+  }
+
+  /** A near-copy (0–15% edited) of indexed set i, as someone would paste into find copies. */
+  nearQuery(i: number, q: number): string[] {
+    return shingleStrings(this.edit(this.tokens(i), random(mix(this.seed, 5, q)), 0.15));
+  }
+
+  /** A set drawn like an original but indexed nowhere. */
+  freshQuery(q: number): string[] {
+    return shingleStrings(this.originalTokens(6, q));
+  }
+
+  /** A fresh set for the probe-rate batch: the same mix as the collection, sources among indexed sets. */
+  releaseSet(q: number, indexed: number): string[] {
+    const next = random(mix(this.seed, 7, q));
+    const x = next();
+    if (x < 0.1) return shingleStrings(this.edit(this.tokens(Math.floor(next() * indexed)), next, 0.2));
+    return shingleStrings(this.originalTokens(8, q));
+  }
+}
+
+/** Token ids → shingle strings; the n-th repeat of a shingle becomes `s<id>#n`, so the set keeps multiset counts. */
+function shingleStrings(tokens: number[]): string[] {
+  const seen = new Map<number, number>();
+  return tokens.map((t) => {
+    const n = (seen.get(t) ?? 0) + 1;
+    seen.set(t, n);
+    return n === 1 ? `s${t}` : `s${t}#${n}`;
+  });
 }

@@ -1,15 +1,15 @@
 import { readFile } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
-import { ALGORITHMS, jaccard, newJoinStats, selfJoin, type Algorithm } from '../matching/join';
+import { JOIN_METHODS, jaccard, newJoinStats, selfJoin, type JoinMethod } from '../matching/join';
 import { rankIntegerSets } from '../matching/order';
 import { parseThreshold, type Threshold } from '../matching/threshold';
 import { elapsed, guarded, InputError, processIo, UsageError, type CommandIo } from './command';
 
-const USAGE = `usage: doublet join --input FILE [--threshold T] [--algorithm ${ALGORITHMS.join('|')}]
+const USAGE = `usage: doublet join --input FILE [--threshold T] [--method ${JOIN_METHODS.join('|')}]
 
 FILE holds one set per line: space-separated non-negative integers (a repeat counts once).
 Prints every pair with Jaccard similarity ≥ T (default 0.8) as "i j similarity", with 0-based
-line numbers i < j; counts and times go to stderr.
+line numbers i < j; counts and times go to stderr. --algorithm is the old name of --method.
 `;
 
 const MAX_TOKEN = 0x7fffffff;
@@ -52,12 +52,11 @@ export function formatSimilarity(value: number): string {
   return String(Number(value.toFixed(6)));
 }
 
-function parseAlgorithm(value: string | undefined): Algorithm {
+function parseMethod(value: string | undefined): JoinMethod {
   if (value === undefined) return 'auto';
-  if (!(ALGORITHMS as readonly string[]).includes(value)) {
-    throw new UsageError(`--algorithm must be one of ${ALGORITHMS.join(', ')} (got "${value}")`);
-  }
-  return value as Algorithm;
+  const method = JOIN_METHODS.find((m) => m === value);
+  if (!method) throw new UsageError(`--method must be one of ${JOIN_METHODS.join(', ')} (got "${value}")`);
+  return method;
 }
 
 /** Parses --threshold with threshold.ts, turning its error into a usage error. */
@@ -77,6 +76,7 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
       options: {
         input: { type: 'string', short: 'i' },
         threshold: { type: 'string', short: 't' },
+        method: { type: 'string', short: 'm' },
         algorithm: { type: 'string', short: 'a' },
         help: { type: 'boolean', short: 'h' },
       },
@@ -89,7 +89,7 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
     }
     if (!values.input) throw new UsageError('--input FILE is required');
     const t = thresholdOption(values.threshold);
-    const algorithm = parseAlgorithm(values.algorithm);
+    const method = parseMethod(values.method ?? values.algorithm);
 
     let start = performance.now();
     let text: string;
@@ -107,7 +107,7 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
 
     start = performance.now();
     const stats = newJoinStats();
-    const pairs = selfJoin(ranked, t, { algorithm, stats });
+    const pairs = selfJoin(ranked, t, { method, stats });
     const joinMs = elapsed(start);
 
     start = performance.now();
@@ -122,7 +122,7 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
     }
     const writeMs = elapsed(start);
     io.err(
-      `sets ${sets.length}, algorithm ${algorithm}, threshold ${t.p}/${t.q}: ` +
+      `sets ${sets.length}, method ${method}, threshold ${t.p}/${t.q}: ` +
         `candidates ${stats.candidates}, verified ${stats.verified}, results ${stats.results}\n` +
         `times: read ${readMs} ms, rank ${rankMs} ms, join ${joinMs} ms, write ${writeMs} ms\n`,
     );

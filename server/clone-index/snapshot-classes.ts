@@ -1,4 +1,5 @@
 import type { ClassListQuery, CloneClassSummaryDTO } from '../../shared/api/snapshots';
+import { splitLines } from '../../analyzers/lines';
 import { parseThreshold } from '../matching/threshold';
 import { clonePairsWithin, type Instance } from './snapshot-pairs';
 import { select } from './sql';
@@ -101,7 +102,7 @@ export async function classMembers(classId: number, threshold: string) {
   );
   const withCode: MemberRow[] = members.map(({ text, ...m }) => ({
     ...m,
-    code: text.split(/\r?\n/).slice(m.startLine - 1, m.endLine).join('\n'),
+    code: splitLines(text).slice(m.startLine - 1, m.endLine).join('\n'),
   }));
   const pairs = await clonePairsWithin(undefined, withCode, parseThreshold(threshold));
   return { members: withCode, pairs };

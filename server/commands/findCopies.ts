@@ -1,8 +1,8 @@
-import { analyzeSnippet } from '../../analyzers';
+import { analyzeSnippetInPool } from '../../analyzers';
 import { INDEX_MIN_THRESHOLD } from '../../shared/constants';
 import { findSimilarSets, locateSets, type CopyLocation } from '../clone-index/find-copies';
 import { select } from '../clone-index/sql';
-import { ValidationError } from '../errors';
+import { HttpError, ValidationError } from '../errors';
 import { parseThreshold, thresholdValue } from '../matching/threshold';
 
 /** One copy found: where it stands and how similar it is to the snippet's fragment. */
@@ -25,9 +25,11 @@ export interface FindCopiesInput {
  * Every fragment in the latest snapshot of each repository of the organisation whose similarity
  * to the pasted snippet reaches the threshold. The snippet is analysed with each shingle size the
  * organisation's repositories use, and compared only with repositories that use the same size.
- * The snippet text is never stored or logged.
+ * The snippet text is never stored or logged. It is analysed in the analyzers' worker pool under
+ * the analysis bounds: a snippet over one is refused with 422 naming it, and `signal` (the client
+ * going away) stops the analysis and rejects with the signal's reason.
  */
-export async function findCopies(input: FindCopiesInput): Promise<FoundCopy[]> {
+export async function findCopies(input: FindCopiesInput, options: { signal?: AbortSignal } = {}): Promise<FoundCopy[]> {
   const t = parseThreshold(input.threshold ?? 0.8);
   if (thresholdValue(t) < INDEX_MIN_THRESHOLD) {
     throw new ValidationError(`threshold must be at least ${INDEX_MIN_THRESHOLD}`, 'threshold');
@@ -40,13 +42,13 @@ export async function findCopies(input: FindCopiesInput): Promise<FoundCopy[]> {
   );
   const found: FoundCopy[] = [];
   for (const { shingleSize, repositoryIds } of sizes) {
-    let fragments;
-    try {
-      fragments = await analyzeSnippet(input.language, input.text, { shingleSize, minTokens: 1 });
-    } catch (error) {
-      throw new ValidationError(error instanceof Error ? error.message : String(error), 'text');
+    const outcome = await analyzeSnippetInPool(input.language, input.text, { shingleSize, minTokens: 1, signal: options.signal });
+    if (!outcome.ok) {
+      if (outcome.refusal === 'invalid') throw new ValidationError(outcome.message, 'text');
+      if (outcome.refusal === 'busy') throw new HttpError(503, 'busy', outcome.message);
+      throw new HttpError(422, 'analysis_limit', `the snippet was refused: ${outcome.message}`, 'text');
     }
-    for (const fragment of fragments) {
+    for (const fragment of outcome.fragments) {
       const similar = await findSimilarSets(undefined, fragment.shingles, t);
       const similarity = new Map(similar.map((s) => [s.setId, s.similarity]));
       const locations = await locateSets(undefined, input.organisationId, [...similarity.keys()]);

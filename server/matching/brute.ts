@@ -1,5 +1,5 @@
 import { reaches, type Threshold } from './threshold';
-import type { JoinStats, SetPair } from './types';
+import type { JoinStats, SimilarPair } from './types';
 
 /**
  * The oracle: every pair, full overlap by merging, exact acceptance test. Deliberately free of
@@ -31,8 +31,8 @@ export function intersectionSize(x: Int32Array, y: Int32Array): number {
  *
  * @example bruteSelfJoin([Int32Array.of(1, 2), Int32Array.of(1, 2)], { p: 1, q: 1 }) // [{ a: 0, b: 1, overlap: 2 }]
  */
-export function bruteSelfJoin(sets: readonly Int32Array[], t: Threshold, stats?: JoinStats): SetPair[] {
-  const pairs: SetPair[] = [];
+export function bruteSelfJoin(sets: readonly Int32Array[], t: Threshold, stats?: JoinStats): SimilarPair[] {
+  const pairs: SimilarPair[] = [];
   const n = sets.length;
   for (let a = 0; a < n; a++) {
     for (let b = a + 1; b < n; b++) {
@@ -59,8 +59,8 @@ export function bruteJoinAgainst(
   indexed: readonly Int32Array[],
   t: Threshold,
   stats?: JoinStats,
-): SetPair[] {
-  const pairs: SetPair[] = [];
+): SimilarPair[] {
+  const pairs: SimilarPair[] = [];
   for (let a = 0; a < probe.length; a++) {
     for (let b = 0; b < indexed.length; b++) {
       const overlap = intersectionSize(probe[a], indexed[b]);

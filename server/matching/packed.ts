@@ -22,7 +22,7 @@ export interface PackedSets {
  * Why the first id: sets that share it, near copies above all, end up next to each other, so a
  * probe's candidates and the list entries it walks are mostly already in the cache. Two counting
  * sorts (first id, then size, both stable) cost O(sets + ids); a full lexicographic sort with a
- * comparator cost 3 s more on a million sets and saved less than that (server/bench/join.ts). The
+ * comparator cost more time on a million sets than it saved (`npm run bench:join`). The
  * order changes no result (any processing order in non-decreasing size is valid), only the
  * memory traffic.
  *

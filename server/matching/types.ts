@@ -3,18 +3,19 @@
 /**
  * The join methods, from the oracle to the most filtered; all return the same pairs. 'bitmap'
  * adds the bitmap filter to 'position' (self-join only; joinAgainst treats it as 'position');
- * 'auto' picks the fastest for the collection's size.
+ * 'auto' picks the fastest for the collection's size. "Method" is the one word for this choice
+ * in code, on the command line (`doublet join --method`) and in the benchmark (`--methods`).
  */
-export type Algorithm = 'brute' | 'length' | 'prefix' | 'position' | 'bitmap' | 'auto';
+export type JoinMethod = 'brute' | 'length' | 'prefix' | 'position' | 'bitmap' | 'auto';
 
-/** Every method, in order of increasing filtering (for `--algorithm` and the benchmark). */
-export const ALGORITHMS: readonly Algorithm[] = ['brute', 'length', 'prefix', 'position', 'bitmap', 'auto'];
+/** Every method, in order of increasing filtering (for `--method` and the benchmark). */
+export const JOIN_METHODS: readonly JoinMethod[] = ['brute', 'length', 'prefix', 'position', 'bitmap', 'auto'];
 
 /**
  * A pair of sets that reaches the threshold. Self-join: a < b, both index the input. joinAgainst:
  * a indexes the probe sets, b the indexed sets. `overlap` is |A ∩ B| (exact).
  */
-export interface SetPair {
+export interface SimilarPair {
   a: number;
   b: number;
   overlap: number;
@@ -36,7 +37,7 @@ export interface JoinStats {
 /** Options of `selfJoin` and `joinAgainst`. */
 export interface JoinOptions {
   /** Default 'auto' (the fastest exact method). */
-  algorithm?: Algorithm;
+  method?: JoinMethod;
   /** Counters to add this join's figures to. */
   stats?: JoinStats;
   /** Where the time went (prefix and position methods only); costs two clock reads per set. */

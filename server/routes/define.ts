@@ -87,7 +87,7 @@ export function declaredRoutes(groups: RouteGroup[]): DeclaredRoute[] {
   return groups.flatMap((group) =>
     group.routes.map((route) => ({
       method: route.method,
-      path: `/api${group.prefix}${route.path === '/' ? '' : route.path}` || '/api',
+      path: `/api${group.prefix}${route.path === '/' ? '' : route.path}`,
       guard: route.guard,
     })),
   );

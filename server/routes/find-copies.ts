@@ -17,7 +17,17 @@ export const findCopiesRoutes = defineRoutes('/find-copies', [
       const actor = currentUser(req);
       authorize(actor, 'findCopies.use', { organisationId: actor.organisationId });
       const threshold = input.threshold ?? 0.8;
-      const copies = await findCopies({ organisationId: actor.organisationId, language: input.language, text: input.text, threshold });
+      // The analysis stops when the client goes away; there is no one left to answer then.
+      const gone = new AbortController();
+      res.on('close', () => gone.abort());
+      const copies = await findCopies(
+        { organisationId: actor.organisationId, language: input.language, text: input.text, threshold },
+        { signal: gone.signal },
+      ).catch((error: unknown) => {
+        if (gone.signal.aborted) return undefined;
+        throw error;
+      });
+      if (!copies) return;
       const answer: FindCopiesResultDTO = {
         threshold,
         copies: copies.map(presentFoundCopy),

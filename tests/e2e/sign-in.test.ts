@@ -45,7 +45,7 @@ async function navLabels(page: Page): Promise<string[]> {
 
 describe('signing in with Chromium', () => {
   for (const role of ['admin', 'lead', 'engineer', 'viewer'] as const) {
-    it(`shows a ${role} the navigation of their role, then signs out`, async () => {
+    it(`shows ${/^[aeiou]/.test(role) ? 'an' : 'a'} ${role} the navigation of their role, then signs out`, async () => {
       const page = await session.context.newPage();
       const consoleErrors: string[] = [];
       page.on('console', (m) => {

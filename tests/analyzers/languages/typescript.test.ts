@@ -39,8 +39,17 @@ describe('typescript analyzer', () => {
     });
 
     it('treats `<T>x` as a cast in .ts but JSX is refused there, not silently mis-read', async () => {
-      const result = await analyzeFile('a.ts', 'const f = () => <div>x</div>;');
-      expect(result.error ?? `${result.syntaxErrors}`).toBeTruthy();
+      const cast = 'const f = (x: unknown) => <number>x;';
+      const asCast = await analyzeFile('a.ts', cast, { minTokens: 1 });
+      expect(asCast.error).toBeUndefined();
+      expect(asCast.syntaxErrors).toBeUndefined();
+      expect(asCast.fragments.map((f) => f.name)).toEqual(['f']);
+      // The same text in .tsx is an unclosed JSX element, so .ts really was read without JSX.
+      expect((await analyzeFile('a.tsx', cast, { minTokens: 1 })).error).toEqual(expect.any(String));
+
+      const jsx = await analyzeFile('a.ts', 'const f = () => <div>x</div>;', { minTokens: 1 });
+      expect(jsx.error).toEqual(expect.stringMatching(/\S/));
+      expect(jsx.fragments).toEqual([]);
     });
   });
 });

@@ -38,13 +38,15 @@ describe('doublet join', () => {
     expect(io.stderr()).toMatch(/join \d+ ms/);
   });
 
-  it('prints the same pairs with every --algorithm', async () => {
+  it('prints the same pairs with every --method (and under its old name --algorithm)', async () => {
     const file = inputFile('same.txt', SAMPLE);
     const outputs = new Set<string>();
-    for (const algorithm of ['brute', 'length', 'prefix', 'position', 'auto']) {
-      const io = captureIo();
-      expect(await run(['--input', file, '--algorithm', algorithm], io)).toBe(0);
-      outputs.add(io.stdout());
+    for (const method of ['brute', 'length', 'prefix', 'position', 'bitmap', 'auto']) {
+      for (const flag of ['--method', '--algorithm']) {
+        const io = captureIo();
+        expect(await run(['--input', file, flag, method], io)).toBe(0);
+        outputs.add(io.stdout());
+      }
     }
     expect([...outputs]).toEqual(['0 1 0.8\n2 4 1\n']);
   });
@@ -74,8 +76,8 @@ describe('doublet join', () => {
   });
 
   describe('edge cases', () => {
-    it('refuses a missing --input, a bad threshold or algorithm with usage (exit 2)', async () => {
-      for (const args of [[], ['--input', 'x', '--threshold', '1.5'], ['--input', 'x', '--algorithm', 'quick'], ['--nope']]) {
+    it('refuses a missing --input, a bad threshold or method with usage (exit 2)', async () => {
+      for (const args of [[], ['--input', 'x', '--threshold', '1.5'], ['--input', 'x', '--method', 'quick'], ['--input', 'x', '--algorithm', 'quick'], ['--nope']]) {
         const io = captureIo();
         expect(await run(args, io), args.join(' ')).toBe(2);
         expect(io.stderr()).toMatch(/^error: .*\nusage: doublet join/);

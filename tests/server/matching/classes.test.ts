@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { cloneClasses, clonedTokens, cloneRatio, cloneType } from '../../../server/matching/classes';
+import { cloneClasses, clonedTokens, cloneRatio } from '../../../server/matching/classes';
 
 /** Oracle: components by breadth-first search over an adjacency list. */
 function componentsByBfs(count: number, pairs: { a: number; b: number }[]): number[][] {

@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { bruteJoinAgainst, bruteSelfJoin } from '../../../server/matching/brute';
-import { ALGORITHMS, jaccard, joinAgainst, newJoinStats, selfJoin, type Algorithm } from '../../../server/matching/join';
+import { JOIN_METHODS, jaccard, joinAgainst, newJoinStats, selfJoin, type JoinMethod } from '../../../server/matching/join';
 import { rankIntegerSets } from '../../../server/matching/order';
 import { parseThreshold, type Threshold } from '../../../server/matching/threshold';
 
@@ -56,8 +56,8 @@ describe('selfJoin', () => {
       fc.property(collection, threshold, (raw, t) => {
         const { ranked } = rankIntegerSets(raw);
         const oracle = bruteSelfJoin(ranked, t);
-        for (const algorithm of ALGORITHMS) {
-          expect(selfJoin(ranked, t, { algorithm }), algorithm).toEqual(oracle);
+        for (const method of JOIN_METHODS) {
+          expect(selfJoin(ranked, t, { method }), method).toEqual(oracle);
         }
       }),
       { numRuns: 400 },
@@ -91,11 +91,11 @@ describe('selfJoin', () => {
       fc.property(
         collection.chain((raw) => fc.tuple(fc.constant(raw), fc.shuffledSubarray([...raw.keys()], { minLength: raw.length }))),
         threshold,
-        fc.constantFrom<Algorithm>('prefix', 'position', 'auto'),
-        ([raw, permutation], t, algorithm) => {
-          const expected = selfJoin(rankIntegerSets(raw).ranked, t, { algorithm });
+        fc.constantFrom<JoinMethod>('prefix', 'position', 'auto'),
+        ([raw, permutation], t, method) => {
+          const expected = selfJoin(rankIntegerSets(raw).ranked, t, { method });
           const shuffled = permutation.map((i) => raw[i]);
-          const back = selfJoin(rankIntegerSets(shuffled).ranked, t, { algorithm }).map(({ a, b, overlap }) => {
+          const back = selfJoin(rankIntegerSets(shuffled).ranked, t, { method }).map(({ a, b, overlap }) => {
             const [u, v] = [permutation[a], permutation[b]];
             return u < v ? { a: u, b: v, overlap } : { a: v, b: u, overlap };
           });
@@ -123,9 +123,9 @@ describe('selfJoin', () => {
       fc.property(collection, fc.constantFrom(...THRESHOLDS), (raw, t) => {
         const { ranked } = rankIntegerSets(raw);
         const verified: number[] = [];
-        for (const algorithm of ['brute', 'length', 'prefix', 'position'] as const) {
+        for (const method of ['brute', 'length', 'prefix', 'position'] as const) {
           const stats = newJoinStats();
-          const pairs = selfJoin(ranked, t, { algorithm, stats });
+          const pairs = selfJoin(ranked, t, { method, stats });
           expect(stats.results).toBe(pairs.length);
           expect(stats.candidates).toBeGreaterThanOrEqual(stats.verified);
           expect(stats.verified).toBeGreaterThanOrEqual(stats.results);
@@ -142,36 +142,36 @@ describe('selfJoin', () => {
     const y = Int32Array.from({ length: 32 }, (_, i) => (i < 28 ? i : 100 + i));
     const t = parseThreshold('0.8');
     expect(Math.ceil((0.8 / 1.8) * 63)).toBe(29); // the floating point trap this guards against
-    for (const algorithm of ALGORITHMS) {
-      expect(selfJoin([x, y], t, { algorithm }), algorithm).toEqual([{ a: 0, b: 1, overlap: 28 }]);
-      expect(joinAgainst([y], [x], t, { algorithm }), algorithm).toEqual([{ a: 0, b: 0, overlap: 28 }]);
+    for (const method of JOIN_METHODS) {
+      expect(selfJoin([x, y], t, { method }), method).toEqual([{ a: 0, b: 1, overlap: 28 }]);
+      expect(joinAgainst([y], [x], t, { method }), method).toEqual([{ a: 0, b: 0, overlap: 28 }]);
     }
     // one shared id fewer (27/36 = 0.75) must not pass
     const z = Int32Array.from({ length: 32 }, (_, i) => (i < 27 ? i : 100 + i));
-    for (const algorithm of ALGORITHMS) expect(selfJoin([x, z], t, { algorithm }), algorithm).toEqual([]);
+    for (const method of JOIN_METHODS) expect(selfJoin([x, z], t, { method }), method).toEqual([]);
   });
 
   describe('edge cases', () => {
     const t = parseThreshold('0.8');
 
     it('returns nothing for no sets, one set, or only empty sets', () => {
-      for (const algorithm of ALGORITHMS) {
-        expect(selfJoin([], t, { algorithm })).toEqual([]);
-        expect(selfJoin([Int32Array.of(1, 2)], t, { algorithm })).toEqual([]);
-        expect(selfJoin([new Int32Array(0), new Int32Array(0)], t, { algorithm })).toEqual([]);
+      for (const method of JOIN_METHODS) {
+        expect(selfJoin([], t, { method })).toEqual([]);
+        expect(selfJoin([Int32Array.of(1, 2)], t, { method })).toEqual([]);
+        expect(selfJoin([new Int32Array(0), new Int32Array(0)], t, { method })).toEqual([]);
       }
     });
 
     it('pairs identical sets at t = 1 and nothing else', () => {
       const sets = [Int32Array.of(1, 2, 3), Int32Array.of(1, 2, 3, 4), Int32Array.of(1, 2, 3), Int32Array.of(5)];
-      for (const algorithm of ALGORITHMS) {
-        expect(selfJoin(sets, parseThreshold('1'), { algorithm })).toEqual([{ a: 0, b: 2, overlap: 3 }]);
+      for (const method of JOIN_METHODS) {
+        expect(selfJoin(sets, parseThreshold('1'), { method })).toEqual([{ a: 0, b: 2, overlap: 3 }]);
       }
     });
 
     it('pairs identical singletons', () => {
-      for (const algorithm of ALGORITHMS) {
-        expect(selfJoin([Int32Array.of(7), Int32Array.of(8), Int32Array.of(7)], t, { algorithm })).toEqual([
+      for (const method of JOIN_METHODS) {
+        expect(selfJoin([Int32Array.of(7), Int32Array.of(8), Int32Array.of(7)], t, { method })).toEqual([
           { a: 0, b: 2, overlap: 1 },
         ]);
       }
@@ -181,7 +181,7 @@ describe('selfJoin', () => {
       expect(() => selfJoin([Int32Array.of(1, 2), Int32Array.of(3, 3)], t)).toThrow(/set 1 is not ascending/);
       expect(() => selfJoin([Int32Array.of(2, 1)], t)).toThrow(/set 0/);
       expect(() => selfJoin([Int32Array.of(-1, 2)], t)).toThrow(/negative/);
-      expect(() => selfJoin([Int32Array.of(1)], t, { algorithm: 'fastest' as Algorithm })).toThrow(/unknown algorithm/);
+      expect(() => selfJoin([Int32Array.of(1)], t, { method: 'fastest' as JoinMethod })).toThrow(/unknown method/);
     });
 
     it('adds to the counters it is given', () => {
@@ -225,8 +225,8 @@ describe('selfJoin on larger sets', () => {
       fc.property(largeCollection, fc.constantFrom(...THRESHOLDS, parseThreshold('0.7'), parseThreshold('9/10')), (raw, t) => {
         const { ranked } = rankIntegerSets(raw);
         const oracle = bruteSelfJoin(ranked, t);
-        for (const algorithm of ['prefix', 'position', 'bitmap', 'auto'] as const) {
-          expect(selfJoin(ranked, t, { algorithm }), algorithm).toEqual(oracle);
+        for (const method of ['prefix', 'position', 'bitmap', 'auto'] as const) {
+          expect(selfJoin(ranked, t, { method }), method).toEqual(oracle);
         }
       }),
       { numRuns: 300 },
@@ -239,8 +239,8 @@ describe('selfJoin on larger sets', () => {
         const { ranked } = rankIntegerSets(raw);
         const position = newJoinStats();
         const bitmap = newJoinStats();
-        selfJoin(ranked, t, { algorithm: 'position', stats: position });
-        selfJoin(ranked, t, { algorithm: 'bitmap', stats: bitmap });
+        selfJoin(ranked, t, { method: 'position', stats: position });
+        selfJoin(ranked, t, { method: 'bitmap', stats: bitmap });
         expect(bitmap.verified).toBeLessThanOrEqual(position.verified);
         expect(bitmap.results).toBe(position.results);
       }),
@@ -255,9 +255,9 @@ describe('selfJoin on larger sets', () => {
       const y = x.slice(0, 240);
       const z = x.slice(0, 239);
       const t = parseThreshold('0.8');
-      for (const algorithm of ALGORITHMS) {
-        expect(selfJoin([x, y], t, { algorithm }), algorithm).toEqual([{ a: 0, b: 1, overlap: 240 }]);
-        expect(selfJoin([x, z], t, { algorithm }), algorithm).toEqual([]);
+      for (const method of JOIN_METHODS) {
+        expect(selfJoin([x, y], t, { method }), method).toEqual([{ a: 0, b: 1, overlap: 240 }]);
+        expect(selfJoin([x, z], t, { method }), method).toEqual([]);
       }
     });
   });
@@ -277,8 +277,8 @@ describe('joinAgainst', () => {
           .filter(({ a, b }) => a < split && b >= split)
           .map(({ a, b, overlap }) => ({ a, b: b - split, overlap }));
         expect(oracle).toEqual(cross);
-        for (const algorithm of ALGORITHMS) {
-          expect(joinAgainst(probe, indexed, t, { algorithm }), algorithm).toEqual(oracle);
+        for (const method of JOIN_METHODS) {
+          expect(joinAgainst(probe, indexed, t, { method }), method).toEqual(oracle);
         }
       }),
       { numRuns: 300 },
@@ -289,18 +289,18 @@ describe('joinAgainst', () => {
     const t = parseThreshold('0.8');
 
     it('handles an empty side and probe ids the index never saw', () => {
-      for (const algorithm of ALGORITHMS) {
-        expect(joinAgainst([], [Int32Array.of(1)], t, { algorithm })).toEqual([]);
-        expect(joinAgainst([Int32Array.of(1)], [], t, { algorithm })).toEqual([]);
-        expect(joinAgainst([Int32Array.of(50, 60)], [Int32Array.of(1, 2)], t, { algorithm })).toEqual([]);
-        expect(joinAgainst([new Int32Array(0)], [new Int32Array(0)], t, { algorithm })).toEqual([]);
+      for (const method of JOIN_METHODS) {
+        expect(joinAgainst([], [Int32Array.of(1)], t, { method })).toEqual([]);
+        expect(joinAgainst([Int32Array.of(1)], [], t, { method })).toEqual([]);
+        expect(joinAgainst([Int32Array.of(50, 60)], [Int32Array.of(1, 2)], t, { method })).toEqual([]);
+        expect(joinAgainst([new Int32Array(0)], [new Int32Array(0)], t, { method })).toEqual([]);
       }
     });
 
     it('reports a probe set against itself when it is also indexed', () => {
       const set = Int32Array.of(3, 4, 5);
-      for (const algorithm of ALGORITHMS) {
-        expect(joinAgainst([set], [set], t, { algorithm })).toEqual([{ a: 0, b: 0, overlap: 3 }]);
+      for (const method of JOIN_METHODS) {
+        expect(joinAgainst([set], [set], t, { method })).toEqual([{ a: 0, b: 0, overlap: 3 }]);
       }
     });
   });

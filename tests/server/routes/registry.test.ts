@@ -4,17 +4,36 @@ import { createApp } from '../../../server/app';
 import { registeredRoutes } from '../../../server/routes';
 import { can } from '../../../shared/permissions';
 import { ROLES, type Role } from '../../../shared/roles';
-import { anonymousAgent, buildTeam, signedInAgent, useDatabase, type Agent } from '../../support';
+import { anonymousAgent, buildTeam, signedInAgent, uniqueEmail, useDatabase, type Agent } from '../../support';
 
 useDatabase();
 
-/** Fills path parameters with well-formed values that match nothing. */
+/** Groups whose `:id` is a uuid (userParamsSchema, invitationParamsSchema). */
+const UUID_ID_PREFIXES = ['/api/users/', '/api/invitations/'];
+/** Well-formed ids that match no record: `:id` elsewhere is a positive integer (repositoryParamsSchema, idParamsSchema). */
+const MISSING_UUID = '00000000-0000-4000-8000-000000000000';
+const MISSING_INTEGER_ID = '2147483647';
+
+/** Fills path parameters with values of the type each route's params schema takes, matching nothing. */
 function concretePath(path: string): string {
+  const id = UUID_ID_PREFIXES.some((prefix) => path.startsWith(prefix)) ? MISSING_UUID : MISSING_INTEGER_ID;
   return path
-    .replace(/:id\b/g, '00000000-0000-4000-8000-000000000000')
+    .replace(/:id\b/g, id)
     .replace(/:token\b/g, 'x'.repeat(43))
     .replace(/:(\w+)/g, 'unknown');
 }
+
+/**
+ * Valid bodies for the guarded routes that validate a body before they load a record, so an
+ * allowed role's request gets past validation. They change nothing another test reads: an id that
+ * matches nothing, or a new row in this file's own organisation.
+ */
+const VALID_BODIES: Record<string, (role: Role) => object> = {
+  'PUT /api/users/:id/role': () => ({ role: 'viewer' }),
+  'POST /api/invitations': (role) => ({ email: uniqueEmail(`registry-${role}`), name: 'Registry Check', role: 'viewer' }),
+  'POST /api/repositories': (role) => ({ name: `registry-${role}-${Date.now()}` }),
+  'POST /api/find-copies': () => ({ language: 'typescript', text: 'function weighWagon(axles: number) { return axles * 2; }' }),
+};
 
 const routes = registeredRoutes();
 
@@ -76,9 +95,13 @@ describe('every guarded route × every role', () => {
         // Mutating signed-in routes (sign out…) are exercised in their own files; here only
         // action-guarded ones, whose dummy ids and empty bodies change nothing.
         if (guard === 'signedIn') continue;
-        it(`${label}: passes the guard for ${role}`, async () => {
-          const res = await agents[role][route.method](concretePath(route.path)).send({});
-          expect([401, 403]).not.toContain(res.status);
+        it(`${label}: passes the guard and validation for ${role}`, async () => {
+          const body = VALID_BODIES[label]?.(role) ?? {};
+          const res = await agents[role][route.method](concretePath(route.path)).send(body);
+          // 2xx, or 404 for the missing record it loads just before `authorize`.
+          const seen = `${res.status} ${JSON.stringify(res.body)}`;
+          expect([400, 401, 403], seen).not.toContain(res.status);
+          expect(res.status, seen).toBeLessThan(500);
         });
         continue;
       }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { NAV_ITEMS, navigationFor } from '../../../web/src/app/navigation';
+import { NAV_ITEMS, navigationFor } from '@/app/navigation';
 
 describe('navigationFor', () => {
   it('hides Admin from everyone but admins and Find copies from viewers', () => {

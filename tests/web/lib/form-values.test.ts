@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { updateRepositorySchema } from '../../../shared/api/repositories';
-import { nonEmptyLines, optionalNumber, validate } from '../../../web/src/lib/form';
+import { updateRepositorySchema } from '@shared/api/repositories';
+import { nonEmptyLines, optionalNumber, validate } from '@/lib/form';
 
 describe('optionalNumber and nonEmptyLines (form values for the shared schemas)', () => {
   it('turn repository settings fields into what PATCH /api/repositories/:id accepts', () => {

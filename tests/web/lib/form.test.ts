@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { inviteUserSchema } from '../../../shared/api/invitations';
-import { signInSchema } from '../../../shared/api/session';
-import { validate } from '../../../web/src/lib/form';
+import { inviteUserSchema } from '@shared/api/invitations';
+import { signInSchema } from '@shared/api/session';
+import { validate } from '@/lib/form';
 
 describe('validate (forms with the shared schemas)', () => {
   it('gives the parsed data, normalised as the server stores it', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatLocation, formatPercent, formatSimilarity } from '../../../web/src/lib/format';
+import { formatLocation, formatPercent, formatSimilarity } from '@/lib/format';
 
 describe('formatPercent', () => {
   it('shows a share as a percentage with one decimal', () => {

@@ -1,8 +1,8 @@
 import type { ReactNode } from 'react';
 import { Navigate, Outlet, useLocation } from 'react-router-dom';
-import { can, type Action } from '../../../shared/permissions';
-import { Notice, errorMessage } from '../components/notice';
-import { useSession } from '../features/auth/api/get-session';
+import { can, type Action } from '@shared/permissions';
+import { Notice, errorMessage } from '@/components/notice';
+import { useSession } from '@/features/auth/api/get-session';
 import { AppLayout } from './layout';
 
 /** Signed-in pages: the layout around them, or the sign-in page (coming back here afterwards). */

@@ -1,10 +1,10 @@
 import { NavLink, Outlet, useNavigate } from 'react-router-dom';
 import clsx from 'clsx';
-import type { SessionDTO } from '../../../shared/api/session';
-import { Button } from '../components/button';
-import { Logo } from '../components/logo';
-import { RoleBadge } from '../components/role-badge';
-import { useSignOut } from '../features/auth/api/sign-out';
+import type { SessionDTO } from '@shared/api/session';
+import { Button } from '@/components/button';
+import { Logo } from '@/components/logo';
+import { RoleBadge } from '@/components/role-badge';
+import { useSignOut } from '@/features/auth/api/sign-out';
 import { navigationFor } from './navigation';
 
 /** The signed-in frame: a dark rail with the navigation the role may use, and the page. */

@@ -1,5 +1,5 @@
-import { can, type Action } from '../../../shared/permissions';
-import type { Role } from '../../../shared/roles';
+import { can, type Action } from '@shared/permissions';
+import type { Role } from '@shared/roles';
 
 /** One entry of the side navigation; `action` is what the role needs to see it. */
 export interface NavItem {

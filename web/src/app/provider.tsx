@@ -1,6 +1,6 @@
 import { QueryClientProvider } from '@tanstack/react-query';
 import { useState, type ReactNode } from 'react';
-import { createQueryClient } from '../lib/query-client';
+import { createQueryClient } from '@/lib/query-client';
 
 /** Everything the app needs around it: the query client. */
 export function AppProvider({ children }: { children: ReactNode }) {

@@ -1,5 +1,5 @@
 import { BrowserRouter, Link, Route, Routes } from 'react-router-dom';
-import { SignInRoute } from '../features/auth/routes/sign-in';
+import { SignInRoute } from '@/features/auth/routes/sign-in';
 import { RequireAction, SignedInFrame } from './guards';
 import { AcceptInvitationRoute } from './routes/accept-invitation';
 import { AccountRoute } from './routes/account';

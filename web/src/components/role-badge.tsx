@@ -1,5 +1,5 @@
 import clsx from 'clsx';
-import { ROLE_LABELS, type Role } from '../../../shared/roles';
+import { ROLE_LABELS, type Role } from '@shared/roles';
 
 const TONES: Record<Role, string> = {
   admin: 'bg-ink text-paper',

@@ -3,7 +3,7 @@
  * header on state-changing requests, and the server's error shape `{ error: { code, message,
  * field? } }` turned into a thrown ApiError.
  */
-import { CSRF_HEADER } from '../../../shared/api/session';
+import { CSRF_HEADER } from '@shared/api/session';
 
 /** An error answer of the API. */
 export class ApiError extends Error {

@@ -2,7 +2,7 @@
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { cleanup, fireEvent, render, screen } from '@testing-library/react';
 import { afterEach, describe, expect, it } from 'vitest';
-import { SignInForm } from '../../../../web/src/features/auth/components/sign-in-form';
+import { SignInForm } from '@/features/auth/components/sign-in-form';
 
 afterEach(cleanup);
 

@@ -2,8 +2,8 @@
 import { cleanup, fireEvent, render, screen } from '@testing-library/react';
 import { MemoryRouter, useLocation } from 'react-router-dom';
 import { afterEach, describe, expect, it } from 'vitest';
-import { ClassFilters } from '../../../../web/src/features/clone-classes/components/class-filters';
-import { useClassFilters } from '../../../../web/src/features/clone-classes/hooks/use-class-filters';
+import { ClassFilters } from '@/features/clone-classes/components/class-filters';
+import { useClassFilters } from '@/features/clone-classes/hooks/use-class-filters';
 
 afterEach(cleanup);
 

@@ -1,13 +1,13 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { CLASS_STATUSES, type ClassListQuery } from '../../../../shared/api/snapshots';
+import { CLASS_STATUSES, type ClassListQuery } from '@shared/api/snapshots';
 import {
   DEFAULT_CLASS_QUERY,
   changeClassFilters,
   readClassFilters,
   toggleClassSort,
   writeClassFilters,
-} from '../../../../web/src/features/clone-classes/lib/class-filters';
+} from '@/features/clone-classes/lib/class-filters';
 
 const read = (search: string) => readClassFilters(new URLSearchParams(search));
 

@@ -1,15 +1,16 @@
 // @vitest-environment jsdom
 import { cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import { afterEach, describe, expect, it } from 'vitest';
-import type { CloneClassDetailDTO, CloneClassMemberDTO } from '../../../../shared/api/snapshots';
-import { ClassMembers } from '../../../../web/src/features/clone-classes/components/class-members';
+import type { CloneClassDetailDTO, CloneClassMemberDTO } from '@shared/api/snapshots';
+import { ClassMembers } from '@/features/clone-classes/components/class-members';
 
 afterEach(cleanup);
 
 // Invented members: three copies of a wagon-weight check in a made-up yard codebase.
+let nextFragmentId = 1;
 function member(path: string, name: string, changed: boolean, startLine = 10): CloneClassMemberDTO {
   const code = [`function ${name}(wagon) {`, '  return wagon.tare + wagon.load;', '}'].join('\n');
-  return { fragmentId: path.length, path, name, kind: 'function', startLine, endLine: startLine + 2, tokens: 60, changed, code };
+  return { fragmentId: nextFragmentId++, path, name, kind: 'function', startLine, endLine: startLine + 2, tokens: 60, changed, code };
 }
 
 function detail(members: CloneClassMemberDTO[], pairs: CloneClassDetailDTO['pairs']): CloneClassDetailDTO {

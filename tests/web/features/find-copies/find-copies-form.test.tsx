@@ -1,8 +1,8 @@
 // @vitest-environment jsdom
 import { cleanup, fireEvent, render, screen } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import type { FindCopiesInput } from '../../../../shared/api/find-copies';
-import { FindCopiesForm } from '../../../../web/src/features/find-copies/components/find-copies-form';
+import type { FindCopiesInput } from '@shared/api/find-copies';
+import { FindCopiesForm } from '@/features/find-copies/components/find-copies-form';
 
 afterEach(cleanup);
 

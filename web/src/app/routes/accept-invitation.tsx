@@ -1,9 +1,9 @@
 import { useNavigate, useParams } from 'react-router-dom';
-import { Logo } from '../../components/logo';
-import { Notice } from '../../components/notice';
-import { useSignIn } from '../../features/auth/api/sign-in';
-import { useInvitationPreview } from '../../features/invitations/api/get-invitation-preview';
-import { AcceptInvitationForm } from '../../features/invitations/components/accept-invitation-form';
+import { Logo } from '@/components/logo';
+import { Notice } from '@/components/notice';
+import { useSignIn } from '@/features/auth/api/sign-in';
+import { useInvitationPreview } from '@/features/invitations/api/get-invitation-preview';
+import { AcceptInvitationForm } from '@/features/invitations/components/accept-invitation-form';
 
 /** /invitations/:token: the one-time link from the mail. Accepting signs the new user straight in. */
 export function AcceptInvitationRoute() {

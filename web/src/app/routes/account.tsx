@@ -1,8 +1,8 @@
-import { PageHeader } from '../../components/page-header';
-import { Panel } from '../../components/panel';
-import { RoleBadge } from '../../components/role-badge';
-import { useSession } from '../../features/auth/api/get-session';
-import { ChangePasswordForm } from '../../features/auth/components/change-password-form';
+import { PageHeader } from '@/components/page-header';
+import { Panel } from '@/components/panel';
+import { RoleBadge } from '@/components/role-badge';
+import { useSession } from '@/features/auth/api/get-session';
+import { ChangePasswordForm } from '@/features/auth/components/change-password-form';
 
 /** /account: who you are, and your password. */
 export function AccountRoute() {

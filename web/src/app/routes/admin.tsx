@@ -1,9 +1,9 @@
-import { PageHeader } from '../../components/page-header';
-import { Panel } from '../../components/panel';
-import { useSession } from '../../features/auth/api/get-session';
-import { InvitationList } from '../../features/invitations/components/invitation-list';
-import { InviteUserForm } from '../../features/invitations/components/invite-user-form';
-import { UserTable } from '../../features/users/components/user-table';
+import { PageHeader } from '@/components/page-header';
+import { Panel } from '@/components/panel';
+import { useSession } from '@/features/auth/api/get-session';
+import { InvitationList } from '@/features/invitations/components/invitation-list';
+import { InviteUserForm } from '@/features/invitations/components/invite-user-form';
+import { UserTable } from '@/features/users/components/user-table';
 
 /** /admin: people, roles and invitations of the organisation. */
 export function AdminRoute() {

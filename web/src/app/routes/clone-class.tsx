@@ -1,13 +1,13 @@
 import { Link, useParams } from 'react-router-dom';
-import type { CloneClassDetailDTO } from '../../../../shared/api/snapshots';
-import { QueryState } from '../../components/data-state';
-import { PageHeader } from '../../components/page-header';
-import { Panel } from '../../components/panel';
-import { formatSimilarity } from '../../lib/format';
-import { useCloneClass } from '../../features/clone-classes/api/get-clone-class';
-import { ClassMembers, ClassPairs } from '../../features/clone-classes/components/class-members';
-import { StatusBadge } from '../../features/clone-classes/components/status-badge';
-import { useRepository } from '../../features/repositories/api/get-repository';
+import type { CloneClassDetailDTO } from '@shared/api/snapshots';
+import { QueryState } from '@/components/data-state';
+import { PageHeader } from '@/components/page-header';
+import { Panel } from '@/components/panel';
+import { formatSimilarity } from '@/lib/format';
+import { useCloneClass } from '@/features/clone-classes/api/get-clone-class';
+import { ClassMembers, ClassPairs } from '@/features/clone-classes/components/class-members';
+import { StatusBadge } from '@/features/clone-classes/components/status-badge';
+import { useRepository } from '@/features/repositories/api/get-repository';
 
 function CloneClassPage({ detail }: { detail: CloneClassDetailDTO }) {
   const repository = useRepository(detail.repositoryId);

@@ -1,9 +1,9 @@
 import { Link } from 'react-router-dom';
-import { QueryState } from '../../components/data-state';
-import { PageHeader } from '../../components/page-header';
-import { Panel } from '../../components/panel';
-import { formatPercent } from '../../lib/format';
-import { useRepositories } from '../../features/repositories/api/get-repositories';
+import { QueryState } from '@/components/data-state';
+import { PageHeader } from '@/components/page-header';
+import { Panel } from '@/components/panel';
+import { formatPercent } from '@/lib/format';
+import { useRepositories } from '@/features/repositories/api/get-repositories';
 
 /** /clone-classes: the way in to each repository's latest clone classes. */
 export function CloneClassesRoute() {

@@ -1,11 +1,11 @@
-import { PageHeader } from '../../components/page-header';
-import { Panel } from '../../components/panel';
-import { Notice, errorMessage } from '../../components/notice';
-import { ApiError } from '../../lib/api-client';
-import { formatSimilarity } from '../../lib/format';
-import { useFindCopies } from '../../features/find-copies/api/find-copies';
-import { CopiesTable } from '../../features/find-copies/components/copies-table';
-import { FindCopiesForm } from '../../features/find-copies/components/find-copies-form';
+import { PageHeader } from '@/components/page-header';
+import { Panel } from '@/components/panel';
+import { Notice, errorMessage } from '@/components/notice';
+import { ApiError } from '@/lib/api-client';
+import { formatSimilarity } from '@/lib/format';
+import { useFindCopies } from '@/features/find-copies/api/find-copies';
+import { CopiesTable } from '@/features/find-copies/components/copies-table';
+import { FindCopiesForm } from '@/features/find-copies/components/find-copies-form';
 
 /** /find-copies: paste a function, see every indexed copy of it. */
 export function FindCopiesRoute() {

@@ -1,14 +1,14 @@
 import { Link } from 'react-router-dom';
-import type { RepositoryDTO } from '../../../../shared/api/repositories';
-import { actionsOf } from '../../../../shared/permissions';
-import { ROLE_LABELS } from '../../../../shared/roles';
-import { QueryState } from '../../components/data-state';
-import { PageHeader } from '../../components/page-header';
-import { Panel } from '../../components/panel';
-import { formatPercent } from '../../lib/format';
-import { useSession } from '../../features/auth/api/get-session';
-import { useRepositories } from '../../features/repositories/api/get-repositories';
-import { TrendChart } from '../../features/repositories/components/trend-chart';
+import type { RepositoryDTO } from '@shared/api/repositories';
+import { actionsOf } from '@shared/permissions';
+import { ROLE_LABELS } from '@shared/roles';
+import { QueryState } from '@/components/data-state';
+import { PageHeader } from '@/components/page-header';
+import { Panel } from '@/components/panel';
+import { formatPercent } from '@/lib/format';
+import { useSession } from '@/features/auth/api/get-session';
+import { useRepositories } from '@/features/repositories/api/get-repositories';
+import { TrendChart } from '@/features/repositories/components/trend-chart';
 
 interface Figure {
   label: string;
@@ -52,7 +52,7 @@ export function OverviewRoute() {
   if (!user) return null;
   const list = repositories.data?.repositories ?? [];
   const figures = repositories.data ? figuresOf(list) : null;
-  // The trend of the first repository (by name) that has a ready snapshot.
+  // The list comes sorted by name, so the featured trend stays the same from one visit to the next.
   const featured = list.find((r) => r.latestSnapshot !== null);
   return (
     <div className="max-w-5xl">

@@ -1,5 +1,5 @@
-import { PageHeader } from '../../components/page-header';
-import { Panel } from '../../components/panel';
+import { PageHeader } from '@/components/page-header';
+import { Panel } from '@/components/panel';
 
 /** A page whose feature arrives in a later change: says what it will hold. */
 export function PlaceholderRoute({ title, description }: { title: string; description: string }) {

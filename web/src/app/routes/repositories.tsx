@@ -1,9 +1,9 @@
-import { can } from '../../../../shared/permissions';
-import { PageHeader } from '../../components/page-header';
-import { Panel } from '../../components/panel';
-import { useSession } from '../../features/auth/api/get-session';
-import { CreateRepositoryForm } from '../../features/repositories/components/create-repository-form';
-import { RepositoryTable } from '../../features/repositories/components/repository-table';
+import { can } from '@shared/permissions';
+import { PageHeader } from '@/components/page-header';
+import { Panel } from '@/components/panel';
+import { useSession } from '@/features/auth/api/get-session';
+import { CreateRepositoryForm } from '@/features/repositories/components/create-repository-form';
+import { RepositoryTable } from '@/features/repositories/components/repository-table';
 
 /** /repositories: every tracked codebase against its budget; leads add new ones. */
 export function RepositoriesRoute() {

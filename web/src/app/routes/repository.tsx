@@ -1,16 +1,16 @@
 import { Link, useNavigate, useParams } from 'react-router-dom';
-import { can } from '../../../../shared/permissions';
-import { QueryState } from '../../components/data-state';
-import { PageHeader } from '../../components/page-header';
-import { Panel } from '../../components/panel';
-import { formatPercent } from '../../lib/format';
-import { useSession } from '../../features/auth/api/get-session';
-import { useRepository } from '../../features/repositories/api/get-repository';
-import { OverBudgetMarker } from '../../features/repositories/components/budget-marker';
-import { DeleteRepository } from '../../features/repositories/components/delete-repository';
-import { RepositorySettingsForm } from '../../features/repositories/components/repository-settings-form';
-import { SnapshotTable } from '../../features/repositories/components/snapshot-table';
-import { TrendChart } from '../../features/repositories/components/trend-chart';
+import { can } from '@shared/permissions';
+import { QueryState } from '@/components/data-state';
+import { PageHeader } from '@/components/page-header';
+import { Panel } from '@/components/panel';
+import { formatPercent } from '@/lib/format';
+import { useSession } from '@/features/auth/api/get-session';
+import { useRepository } from '@/features/repositories/api/get-repository';
+import { OverBudgetMarker } from '@/features/repositories/components/budget-marker';
+import { DeleteRepository } from '@/features/repositories/components/delete-repository';
+import { RepositorySettingsForm } from '@/features/repositories/components/repository-settings-form';
+import { SnapshotTable } from '@/features/repositories/components/snapshot-table';
+import { TrendChart } from '@/features/repositories/components/trend-chart';
 
 /** /repositories/:id: the trend, the snapshots, and (for leads) settings and delete. */
 export function RepositoryRoute() {

@@ -1,19 +1,19 @@
 import { Link, useParams } from 'react-router-dom';
-import type { SnapshotDTO } from '../../../../shared/api/snapshots';
-import { QueryState } from '../../components/data-state';
-import { PageHeader } from '../../components/page-header';
-import { Panel } from '../../components/panel';
-import { formatDateTime, formatPercent } from '../../lib/format';
-import { useSnapshot } from '../../features/clone-classes/api/get-snapshot';
-import { useSnapshotClasses } from '../../features/clone-classes/api/get-snapshot-classes';
-import { useSnapshotComparison } from '../../features/clone-classes/api/get-snapshot-comparison';
-import { ClassFilters } from '../../features/clone-classes/components/class-filters';
-import { CloneClassTable } from '../../features/clone-classes/components/clone-class-table';
-import { ComparisonCounts } from '../../features/clone-classes/components/comparison-counts';
-import { Pagination } from '../../features/clone-classes/components/pagination';
-import { useClassFilters } from '../../features/clone-classes/hooks/use-class-filters';
-import { toggleClassSort } from '../../features/clone-classes/lib/class-filters';
-import { useRepository } from '../../features/repositories/api/get-repository';
+import type { SnapshotDTO } from '@shared/api/snapshots';
+import { QueryState } from '@/components/data-state';
+import { PageHeader } from '@/components/page-header';
+import { Panel } from '@/components/panel';
+import { formatDateTime, formatPercent } from '@/lib/format';
+import { useSnapshot } from '@/features/clone-classes/api/get-snapshot';
+import { useSnapshotClasses } from '@/features/clone-classes/api/get-snapshot-classes';
+import { useSnapshotComparison } from '@/features/clone-classes/api/get-snapshot-comparison';
+import { ClassFilters } from '@/features/clone-classes/components/class-filters';
+import { CloneClassTable } from '@/features/clone-classes/components/clone-class-table';
+import { ComparisonCounts } from '@/features/clone-classes/components/comparison-counts';
+import { Pagination } from '@/features/clone-classes/components/pagination';
+import { useClassFilters } from '@/features/clone-classes/hooks/use-class-filters';
+import { toggleClassSort } from '@/features/clone-classes/lib/class-filters';
+import { useRepository } from '@/features/repositories/api/get-repository';
 
 function SnapshotFigures({ snapshot }: { snapshot: SnapshotDTO }) {
   const m = snapshot.metrics;

@@ -1,6 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
-import type { ChangePasswordInput } from '../../../../../shared/api/session';
-import { api } from '../../../lib/api-client';
+import type { ChangePasswordInput } from '@shared/api/session';
+import { api } from '@/lib/api-client';
 
 /** PUT /api/session/password. */
 export function changePassword(input: ChangePasswordInput): Promise<void> {

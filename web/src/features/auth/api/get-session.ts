@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { SessionDTO } from '../../../../../shared/api/session';
-import { api, setCsrfToken } from '../../../lib/api-client';
+import type { SessionDTO } from '@shared/api/session';
+import { api, setCsrfToken } from '@/lib/api-client';
 
 /** GET /api/session: the signed-in user (or null) and the CSRF token, which the api client keeps. */
 export async function getSession(): Promise<SessionDTO> {

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { SessionDTO, SignInInput } from '../../../../../shared/api/session';
-import { api, setCsrfToken } from '../../../lib/api-client';
+import type { SessionDTO, SignInInput } from '@shared/api/session';
+import { api, setCsrfToken } from '@/lib/api-client';
 import { sessionQueryOptions } from './get-session';
 
 /** POST /api/session. */

@@ -1,11 +1,11 @@
 import { useState, type FormEvent } from 'react';
-import { changePasswordSchema } from '../../../../../shared/api/session';
-import { Button } from '../../../components/button';
-import { TextField } from '../../../components/field';
-import { Notice, errorMessage } from '../../../components/notice';
-import { ApiError } from '../../../lib/api-client';
-import { validate, type FieldErrors } from '../../../lib/form';
-import { useChangePassword } from '../api/change-password';
+import { changePasswordSchema } from '@shared/api/session';
+import { Button } from '@/components/button';
+import { TextField } from '@/components/field';
+import { Notice, errorMessage } from '@/components/notice';
+import { ApiError } from '@/lib/api-client';
+import { validate, type FieldErrors } from '@/lib/form';
+import { useChangePassword } from '@/features/auth/api/change-password';
 
 /** Current and new password; other sessions of the user end on success. */
 export function ChangePasswordForm() {

@@ -1,10 +1,10 @@
 import { useState, type FormEvent } from 'react';
-import { signInSchema } from '../../../../../shared/api/session';
-import { Button } from '../../../components/button';
-import { TextField } from '../../../components/field';
-import { Notice, errorMessage } from '../../../components/notice';
-import { validate, type FieldErrors } from '../../../lib/form';
-import { useSignIn } from '../api/sign-in';
+import { signInSchema } from '@shared/api/session';
+import { Button } from '@/components/button';
+import { TextField } from '@/components/field';
+import { Notice, errorMessage } from '@/components/notice';
+import { validate, type FieldErrors } from '@/lib/form';
+import { useSignIn } from '@/features/auth/api/sign-in';
 
 /** E-mail and password; on success the session query holds the user. */
 export function SignInForm({ onSignedIn }: { onSignedIn?: () => void }) {

@@ -1,7 +1,7 @@
 import { Navigate, useLocation, useNavigate } from 'react-router-dom';
-import { Logo } from '../../../components/logo';
-import { useSession } from '../api/get-session';
-import { SignInForm } from '../components/sign-in-form';
+import { Logo } from '@/components/logo';
+import { useSession } from '@/features/auth/api/get-session';
+import { SignInForm } from '@/features/auth/components/sign-in-form';
 
 /** /sign-in: the form, or straight on to where the visitor was going once signed in. */
 export function SignInRoute() {

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { CloneClassDetailDTO } from '../../../../../shared/api/snapshots';
-import { api } from '../../../lib/api-client';
+import type { CloneClassDetailDTO } from '@shared/api/snapshots';
+import { api } from '@/lib/api-client';
 
 /** GET /api/clone-classes/:id. */
 export function getCloneClass(id: number): Promise<CloneClassDetailDTO> {

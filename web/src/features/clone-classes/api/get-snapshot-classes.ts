@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { ClassListQuery, CloneClassPageDTO } from '../../../../../shared/api/snapshots';
-import { api } from '../../../lib/api-client';
-import { writeClassFilters } from '../lib/class-filters';
+import type { ClassListQuery, CloneClassPageDTO } from '@shared/api/snapshots';
+import { api } from '@/lib/api-client';
+import { writeClassFilters } from '@/features/clone-classes/lib/class-filters';
 
 /** GET /api/snapshots/:id/classes, sorted, filtered and paged on the server. */
 export function getSnapshotClasses(id: number, query: ClassListQuery): Promise<CloneClassPageDTO> {

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { SnapshotComparisonDTO } from '../../../../../shared/api/snapshots';
-import { api } from '../../../lib/api-client';
+import type { SnapshotComparisonDTO } from '@shared/api/snapshots';
+import { api } from '@/lib/api-client';
 
 /** GET /api/snapshots/:id/comparison: the classes by status against the previous snapshot. */
 export function getSnapshotComparison(id: number): Promise<SnapshotComparisonDTO> {

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { SnapshotDTO } from '../../../../../shared/api/snapshots';
-import { api } from '../../../lib/api-client';
+import type { SnapshotDTO } from '@shared/api/snapshots';
+import { api } from '@/lib/api-client';
 
 /** GET /api/snapshots/:id. */
 export function getSnapshot(id: number): Promise<SnapshotDTO> {

@@ -1,8 +1,8 @@
 import { useState, type FormEvent } from 'react';
-import { CLASS_STATUSES, type ClassListQuery, type ClassStatus } from '../../../../../shared/api/snapshots';
-import { Button } from '../../../components/button';
-import { SelectField, TextField } from '../../../components/field';
-import type { ClassFilterChange } from '../lib/class-filters';
+import { CLASS_STATUSES, type ClassListQuery, type ClassStatus } from '@shared/api/snapshots';
+import { Button } from '@/components/button';
+import { SelectField, TextField } from '@/components/field';
+import type { ClassFilterChange } from '@/features/clone-classes/lib/class-filters';
 
 /**
  * Type, language, status and path filters of the class list. Selects apply at once; the path

@@ -1,7 +1,7 @@
 import { useState } from 'react';
-import type { CloneClassDetailDTO, CloneClassMemberDTO, CloneClassPairDTO } from '../../../../../shared/api/snapshots';
-import { SelectField } from '../../../components/field';
-import { formatLocation, formatSimilarity } from '../../../lib/format';
+import type { CloneClassDetailDTO, CloneClassMemberDTO, CloneClassPairDTO } from '@shared/api/snapshots';
+import { SelectField } from '@/components/field';
+import { formatLocation, formatSimilarity } from '@/lib/format';
 import { CodeView } from './code-view';
 
 const TYPE_NAMES: Record<1 | 2 | 3, string> = {

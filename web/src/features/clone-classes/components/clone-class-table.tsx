@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import clsx from 'clsx';
-import type { ClassListQuery, CloneClassSummaryDTO } from '../../../../../shared/api/snapshots';
-import { formatSimilarity } from '../../../lib/format';
+import type { ClassListQuery, CloneClassSummaryDTO } from '@shared/api/snapshots';
+import { formatSimilarity } from '@/lib/format';
 import { StatusBadge } from './status-badge';
 
 type SortColumn = ClassListQuery['sort'];

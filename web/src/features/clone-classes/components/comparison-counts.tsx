@@ -1,5 +1,5 @@
 import clsx from 'clsx';
-import type { ClassStatus, SnapshotComparisonDTO } from '../../../../../shared/api/snapshots';
+import type { ClassStatus, SnapshotComparisonDTO } from '@shared/api/snapshots';
 import { STATUS_MEANINGS } from './status-badge';
 
 /** Display order: what needs a look first. */

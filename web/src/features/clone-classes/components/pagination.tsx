@@ -1,4 +1,4 @@
-import { Button } from '../../../components/button';
+import { Button } from '@/components/button';
 
 /** "51–100 of 240" with previous and next. */
 export function Pagination({

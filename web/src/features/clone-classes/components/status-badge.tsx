@@ -1,5 +1,5 @@
 import clsx from 'clsx';
-import type { ClassStatus } from '../../../../../shared/api/snapshots';
+import type { ClassStatus } from '@shared/api/snapshots';
 
 /** Colour only where it asks for attention: drifted (a fix may have missed a copy) and new. */
 export const STATUS_TONES: Record<ClassStatus | 'gone', string> = {

@@ -1,7 +1,7 @@
 import { useCallback, useMemo } from 'react';
 import { useSearchParams } from 'react-router-dom';
-import type { ClassListQuery } from '../../../../../shared/api/snapshots';
-import { changeClassFilters, readClassFilters, writeClassFilters, type ClassFilterChange } from '../lib/class-filters';
+import type { ClassListQuery } from '@shared/api/snapshots';
+import { changeClassFilters, readClassFilters, writeClassFilters, type ClassFilterChange } from '@/features/clone-classes/lib/class-filters';
 
 /**
  * The class list query kept in the page's search parameters, and a setter that writes changes

@@ -4,7 +4,7 @@
  * is dropped (a hand-edited `?status=sideways` just shows all statuses), and defaults stay out of
  * the URL so links are short.
  */
-import { classListQuerySchema, type ClassListQuery } from '../../../../../shared/api/snapshots';
+import { classListQuerySchema, type ClassListQuery } from '@shared/api/snapshots';
 
 /** Every parameter, in the order they are written. */
 const KEYS = ['sort', 'order', 'type', 'language', 'path', 'status', 'page', 'pageSize'] as const;

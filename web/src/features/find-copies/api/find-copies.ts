@@ -1,6 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
-import type { FindCopiesInput, FindCopiesResultDTO } from '../../../../../shared/api/find-copies';
-import { api } from '../../../lib/api-client';
+import type { FindCopiesInput, FindCopiesResultDTO } from '@shared/api/find-copies';
+import { api } from '@/lib/api-client';
 
 /** POST /api/find-copies (a POST because the snippet can be large; nothing is stored). */
 export function findCopies(input: FindCopiesInput): Promise<FindCopiesResultDTO> {

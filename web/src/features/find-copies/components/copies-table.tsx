@@ -1,6 +1,6 @@
 import { Link } from 'react-router-dom';
-import type { FindCopiesResultDTO } from '../../../../../shared/api/find-copies';
-import { formatLocation, formatSimilarity } from '../../../lib/format';
+import type { FindCopiesResultDTO } from '@shared/api/find-copies';
+import { formatLocation, formatSimilarity } from '@/lib/format';
 
 /** The copies found, most similar first; the release links to that snapshot's clone classes. */
 export function CopiesTable({ result }: { result: FindCopiesResultDTO }) {

@@ -1,10 +1,10 @@
 import { useState, type FormEvent } from 'react';
-import { SNIPPET_LANGUAGES, findCopiesSchema, type FindCopiesInput } from '../../../../../shared/api/find-copies';
-import { INDEX_MIN_THRESHOLD } from '../../../../../shared/constants';
-import { Button } from '../../../components/button';
-import { SelectField, TextField } from '../../../components/field';
-import { TextAreaField } from '../../../components/textarea-field';
-import { optionalNumber, validate, type FieldErrors } from '../../../lib/form';
+import { SNIPPET_LANGUAGES, findCopiesSchema, type FindCopiesInput } from '@shared/api/find-copies';
+import { INDEX_MIN_THRESHOLD } from '@shared/constants';
+import { Button } from '@/components/button';
+import { SelectField, TextField } from '@/components/field';
+import { TextAreaField } from '@/components/textarea-field';
+import { optionalNumber, validate, type FieldErrors } from '@/lib/form';
 
 const LANGUAGE_NAMES: Record<(typeof SNIPPET_LANGUAGES)[number], string> = {
   javascript: 'JavaScript',

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { AcceptInvitationInput } from '../../../../../shared/api/invitations';
-import type { UserDTO } from '../../../../../shared/api/users';
-import { api } from '../../../lib/api-client';
+import type { AcceptInvitationInput } from '@shared/api/invitations';
+import type { UserDTO } from '@shared/api/users';
+import { api } from '@/lib/api-client';
 import { invitationPreviewQueryOptions } from './get-invitation-preview';
 
 /** POST /api/invitations/token/:token/accept. */

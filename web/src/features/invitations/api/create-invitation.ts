@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { InvitationDTO, InviteUserInput } from '../../../../../shared/api/invitations';
-import { api } from '../../../lib/api-client';
+import type { InvitationDTO, InviteUserInput } from '@shared/api/invitations';
+import { api } from '@/lib/api-client';
 import { invitationsQueryOptions } from './get-invitations';
 
 /** POST /api/invitations. */

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { InvitationPreviewDTO } from '../../../../../shared/api/invitations';
-import { api } from '../../../lib/api-client';
+import type { InvitationPreviewDTO } from '@shared/api/invitations';
+import { api } from '@/lib/api-client';
 
 /** GET /api/invitations/token/:token. */
 export function getInvitationPreview(token: string): Promise<InvitationPreviewDTO> {

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { InvitationListDTO } from '../../../../../shared/api/invitations';
-import { api } from '../../../lib/api-client';
+import type { InvitationListDTO } from '@shared/api/invitations';
+import { api } from '@/lib/api-client';
 
 /** GET /api/invitations: the pending ones. */
 export function getInvitations(): Promise<InvitationListDTO> {

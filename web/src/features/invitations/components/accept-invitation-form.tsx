@@ -1,11 +1,11 @@
 import { useState, type FormEvent } from 'react';
-import { acceptInvitationSchema, type InvitationPreviewDTO } from '../../../../../shared/api/invitations';
-import { ROLE_LABELS } from '../../../../../shared/roles';
-import { Button } from '../../../components/button';
-import { TextField } from '../../../components/field';
-import { Notice, errorMessage } from '../../../components/notice';
-import { validate, type FieldErrors } from '../../../lib/form';
-import { useAcceptInvitation } from '../api/accept-invitation';
+import { acceptInvitationSchema, type InvitationPreviewDTO } from '@shared/api/invitations';
+import { ROLE_LABELS } from '@shared/roles';
+import { Button } from '@/components/button';
+import { TextField } from '@/components/field';
+import { Notice, errorMessage } from '@/components/notice';
+import { validate, type FieldErrors } from '@/lib/form';
+import { useAcceptInvitation } from '@/features/invitations/api/accept-invitation';
 
 /** Name and a new password for the invitee; calls onAccepted with the password to sign in with. */
 export function AcceptInvitationForm({

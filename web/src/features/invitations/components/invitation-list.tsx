@@ -1,9 +1,9 @@
-import { Button } from '../../../components/button';
-import { Notice, errorMessage } from '../../../components/notice';
-import { RoleBadge } from '../../../components/role-badge';
-import { formatDateTime } from '../../../lib/format';
-import { useInvitations } from '../api/get-invitations';
-import { useRevokeInvitation } from '../api/revoke-invitation';
+import { Button } from '@/components/button';
+import { Notice, errorMessage } from '@/components/notice';
+import { RoleBadge } from '@/components/role-badge';
+import { formatDateTime } from '@/lib/format';
+import { useInvitations } from '@/features/invitations/api/get-invitations';
+import { useRevokeInvitation } from '@/features/invitations/api/revoke-invitation';
 
 /** Pending invitations with their expiry, each revocable. */
 export function InvitationList() {

@@ -1,12 +1,12 @@
 import { useState, type FormEvent } from 'react';
-import { inviteUserSchema } from '../../../../../shared/api/invitations';
-import { ROLES, ROLE_LABELS } from '../../../../../shared/roles';
-import { Button } from '../../../components/button';
-import { SelectField, TextField } from '../../../components/field';
-import { Notice, errorMessage } from '../../../components/notice';
-import { ApiError } from '../../../lib/api-client';
-import { validate, type FieldErrors } from '../../../lib/form';
-import { useCreateInvitation } from '../api/create-invitation';
+import { inviteUserSchema } from '@shared/api/invitations';
+import { ROLES, ROLE_LABELS } from '@shared/roles';
+import { Button } from '@/components/button';
+import { SelectField, TextField } from '@/components/field';
+import { Notice, errorMessage } from '@/components/notice';
+import { ApiError } from '@/lib/api-client';
+import { validate, type FieldErrors } from '@/lib/form';
+import { useCreateInvitation } from '@/features/invitations/api/create-invitation';
 
 /** Name, e-mail and role; sends the one-time link by mail. */
 export function InviteUserForm() {

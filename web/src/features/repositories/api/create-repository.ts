@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { CreateRepositoryInput, RepositoryDTO } from '../../../../../shared/api/repositories';
-import { api } from '../../../lib/api-client';
+import type { CreateRepositoryInput, RepositoryDTO } from '@shared/api/repositories';
+import { api } from '@/lib/api-client';
 import { repositoriesQueryOptions } from './get-repositories';
 
 /** POST /api/repositories. */

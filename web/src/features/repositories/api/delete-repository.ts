@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { RepositoryListDTO } from '../../../../../shared/api/repositories';
-import { api } from '../../../lib/api-client';
+import type { RepositoryListDTO } from '@shared/api/repositories';
+import { api } from '@/lib/api-client';
 import { repositoriesQueryOptions } from './get-repositories';
 
 /** DELETE /api/repositories/:id. */

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { RepositoryListDTO } from '../../../../../shared/api/repositories';
-import { api } from '../../../lib/api-client';
+import type { RepositoryListDTO } from '@shared/api/repositories';
+import { api } from '@/lib/api-client';
 
 /** GET /api/repositories. */
 export function getRepositories(): Promise<RepositoryListDTO> {

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { RepositoryMetricsDTO } from '../../../../../shared/api/repositories';
-import { api } from '../../../lib/api-client';
+import type { RepositoryMetricsDTO } from '@shared/api/repositories';
+import { api } from '@/lib/api-client';
 
 /** GET /api/repositories/:id/metrics: the trend, oldest first, with the budget. */
 export function getRepositoryMetrics(id: number): Promise<RepositoryMetricsDTO> {

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { SnapshotListDTO } from '../../../../../shared/api/snapshots';
-import { api } from '../../../lib/api-client';
+import type { SnapshotListDTO } from '@shared/api/snapshots';
+import { api } from '@/lib/api-client';
 
 /** GET /api/repositories/:id/snapshots, newest first. */
 export function getRepositorySnapshots(id: number): Promise<SnapshotListDTO> {

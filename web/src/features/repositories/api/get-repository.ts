@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { RepositoryDTO } from '../../../../../shared/api/repositories';
-import { api } from '../../../lib/api-client';
+import type { RepositoryDTO } from '@shared/api/repositories';
+import { api } from '@/lib/api-client';
 
 /** GET /api/repositories/:id. */
 export function getRepository(id: number): Promise<RepositoryDTO> {

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { RepositoryDTO, UpdateRepositoryInput } from '../../../../../shared/api/repositories';
-import { api } from '../../../lib/api-client';
+import type { RepositoryDTO, UpdateRepositoryInput } from '@shared/api/repositories';
+import { api } from '@/lib/api-client';
 import { repositoriesQueryOptions } from './get-repositories';
 
 /** PATCH /api/repositories/:id (settings and budget). */

@@ -1,13 +1,13 @@
 import { useState, type FormEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
-import { createRepositorySchema } from '../../../../../shared/api/repositories';
-import { DEFAULT_REPOSITORY_SETTINGS } from '../../../../../shared/constants';
-import { Button } from '../../../components/button';
-import { TextField } from '../../../components/field';
-import { Notice, errorMessage } from '../../../components/notice';
-import { ApiError } from '../../../lib/api-client';
-import { validate, type FieldErrors } from '../../../lib/form';
-import { useCreateRepository } from '../api/create-repository';
+import { createRepositorySchema } from '@shared/api/repositories';
+import { DEFAULT_REPOSITORY_SETTINGS } from '@shared/constants';
+import { Button } from '@/components/button';
+import { TextField } from '@/components/field';
+import { Notice, errorMessage } from '@/components/notice';
+import { ApiError } from '@/lib/api-client';
+import { validate, type FieldErrors } from '@/lib/form';
+import { useCreateRepository } from '@/features/repositories/api/create-repository';
 import { CloneBudgetField, MatchingSettingsFields, readMatchingSettings } from './matching-settings-fields';
 
 /** Name, matching settings and an optional clone budget; opens the new repository on success. */

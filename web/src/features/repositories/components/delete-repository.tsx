@@ -1,8 +1,8 @@
 import { useState } from 'react';
-import type { RepositoryDTO } from '../../../../../shared/api/repositories';
-import { Button } from '../../../components/button';
-import { Notice, errorMessage } from '../../../components/notice';
-import { useDeleteRepository } from '../api/delete-repository';
+import type { RepositoryDTO } from '@shared/api/repositories';
+import { Button } from '@/components/button';
+import { Notice, errorMessage } from '@/components/notice';
+import { useDeleteRepository } from '@/features/repositories/api/delete-repository';
 
 /** Delete, behind an explicit second step that names what goes. Calls onDeleted afterwards. */
 export function DeleteRepository({ repository, onDeleted }: { repository: RepositoryDTO; onDeleted: () => void }) {

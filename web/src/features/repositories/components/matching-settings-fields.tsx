@@ -1,6 +1,6 @@
-import { INDEX_MIN_THRESHOLD } from '../../../../../shared/constants';
-import { TextField } from '../../../components/field';
-import { optionalNumber, type FieldErrors } from '../../../lib/form';
+import { INDEX_MIN_THRESHOLD } from '@shared/constants';
+import { TextField } from '@/components/field';
+import { optionalNumber, type FieldErrors } from '@/lib/form';
 
 /** The values the matching fields start with. */
 export interface MatchingSettingsValues {

@@ -1,11 +1,11 @@
 import { useState, type FormEvent } from 'react';
-import { updateRepositorySchema, type RepositoryDTO } from '../../../../../shared/api/repositories';
-import { Button } from '../../../components/button';
-import { Notice, errorMessage } from '../../../components/notice';
-import { TextAreaField } from '../../../components/textarea-field';
-import { ApiError } from '../../../lib/api-client';
-import { nonEmptyLines, validate, type FieldErrors } from '../../../lib/form';
-import { useUpdateRepository } from '../api/update-repository';
+import { updateRepositorySchema, type RepositoryDTO } from '@shared/api/repositories';
+import { Button } from '@/components/button';
+import { Notice, errorMessage } from '@/components/notice';
+import { TextAreaField } from '@/components/textarea-field';
+import { ApiError } from '@/lib/api-client';
+import { nonEmptyLines, validate, type FieldErrors } from '@/lib/form';
+import { useUpdateRepository } from '@/features/repositories/api/update-repository';
 import { CloneBudgetField, MatchingSettingsFields, readMatchingSettings } from './matching-settings-fields';
 
 /**

@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
-import { QueryState } from '../../../components/data-state';
-import { formatDateTime, formatPercent } from '../../../lib/format';
-import { useRepositories } from '../api/get-repositories';
+import { QueryState } from '@/components/data-state';
+import { formatDateTime, formatPercent } from '@/lib/format';
+import { useRepositories } from '@/features/repositories/api/get-repositories';
 import { OverBudgetMarker } from './budget-marker';
 
 /** The organisation's repositories: latest release, its clone ratio against the budget. */

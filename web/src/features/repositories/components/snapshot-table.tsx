@@ -1,9 +1,9 @@
 import { Link } from 'react-router-dom';
 import clsx from 'clsx';
-import type { SnapshotDTO } from '../../../../../shared/api/snapshots';
-import { QueryState } from '../../../components/data-state';
-import { formatDateTime, formatPercent } from '../../../lib/format';
-import { useRepositorySnapshots } from '../api/get-repository-snapshots';
+import type { SnapshotDTO } from '@shared/api/snapshots';
+import { QueryState } from '@/components/data-state';
+import { formatDateTime, formatPercent } from '@/lib/format';
+import { useRepositorySnapshots } from '@/features/repositories/api/get-repository-snapshots';
 
 const STATUS_TONES: Record<SnapshotDTO['status'], string> = {
   ready: 'text-accent',

@@ -1,8 +1,8 @@
 import { CartesianGrid, Line, LineChart, ReferenceLine, Tooltip, XAxis, YAxis } from 'recharts';
-import type { RepositoryMetricsDTO } from '../../../../../shared/api/repositories';
-import { QueryState } from '../../../components/data-state';
-import { formatPercent } from '../../../lib/format';
-import { useRepositoryMetrics } from '../api/get-repository-metrics';
+import type { RepositoryMetricsDTO } from '@shared/api/repositories';
+import { QueryState } from '@/components/data-state';
+import { formatPercent } from '@/lib/format';
+import { useRepositoryMetrics } from '@/features/repositories/api/get-repository-metrics';
 
 // The palette of index.css, spelled out because SVG attributes take no Tailwind classes.
 const ACCENT = '#2d6e60';

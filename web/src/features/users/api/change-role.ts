@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { ChangeRoleInput, UserDTO } from '../../../../../shared/api/users';
-import { api } from '../../../lib/api-client';
+import type { ChangeRoleInput, UserDTO } from '@shared/api/users';
+import { api } from '@/lib/api-client';
 import { usersQueryOptions } from './get-users';
 
 /** PUT /api/users/:id/role. */

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { UserDTO } from '../../../../../shared/api/users';
-import { api } from '../../../lib/api-client';
+import type { UserDTO } from '@shared/api/users';
+import { api } from '@/lib/api-client';
 import { usersQueryOptions } from './get-users';
 
 /** POST /api/users/:id/deactivate. */

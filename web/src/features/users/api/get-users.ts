@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { UserListDTO } from '../../../../../shared/api/users';
-import { api } from '../../../lib/api-client';
+import type { UserListDTO } from '@shared/api/users';
+import { api } from '@/lib/api-client';
 
 /** GET /api/users. */
 export function getUsers(): Promise<UserListDTO> {

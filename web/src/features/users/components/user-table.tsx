@@ -1,12 +1,12 @@
-import { ROLES, ROLE_LABELS, type Role } from '../../../../../shared/roles';
-import type { UserDTO } from '../../../../../shared/api/users';
-import { Button } from '../../../components/button';
-import { Notice, errorMessage } from '../../../components/notice';
-import { RoleBadge } from '../../../components/role-badge';
-import { formatDateTime } from '../../../lib/format';
-import { useChangeRole } from '../api/change-role';
-import { useDeactivateUser } from '../api/deactivate-user';
-import { useUsers } from '../api/get-users';
+import { ROLES, ROLE_LABELS, type Role } from '@shared/roles';
+import type { UserDTO } from '@shared/api/users';
+import { Button } from '@/components/button';
+import { Notice, errorMessage } from '@/components/notice';
+import { RoleBadge } from '@/components/role-badge';
+import { formatDateTime } from '@/lib/format';
+import { useChangeRole } from '@/features/users/api/change-role';
+import { useDeactivateUser } from '@/features/users/api/deactivate-user';
+import { useUsers } from '@/features/users/api/get-users';
 
 function UserRow({ user, isSelf }: { user: UserDTO; isSelf: boolean }) {
   const changeRole = useChangeRole();

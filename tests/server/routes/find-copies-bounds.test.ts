@@ -1,0 +1,64 @@
+import type { Express } from 'express';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { closeSnippetPool } from '../../../analyzers';
+import { createApp } from '../../../server/app';
+import { buildRepository, buildTeam, signedInAgent, useDatabase } from '../../support';
+
+useDatabase();
+
+let app: Express;
+beforeAll(() => {
+  app = createApp();
+});
+afterAll(() => closeSnippetPool());
+
+/** The input of the hardening report: 24,999 nested lambdas, under the 200,000-character limit. */
+const NESTED_LAMBDAS = `f = ${'lambda: '.repeat(24_999)}1\n`;
+
+/** Nested `<T>(` casts: Babel's TypeScript parser tries both readings at every level; 24 levels take hours. */
+const PATHOLOGICAL_TS = `const x = ${'<a>('.repeat(24)}y;\n`;
+
+/** CPU time (ms) this process, pool threads included, spends during the next `ms` milliseconds. */
+async function cpuDuring(ms: number): Promise<number> {
+  const before = process.cpuUsage();
+  await new Promise((resolve) => setTimeout(resolve, ms));
+  const used = process.cpuUsage(before);
+  return (used.user + used.system) / 1000;
+}
+
+describe('POST /api/find-copies under the analysis bounds', () => {
+  it('answers the nested-lambda snippet with 422 naming the nesting limit within seconds, and the server still answers', async () => {
+    const team = await buildTeam();
+    await buildRepository({ organisationId: team.organisation.id });
+    const engineer = await signedInAgent(app, team.engineer);
+    expect(NESTED_LAMBDAS.length).toBeLessThan(200_000);
+    const started = Date.now();
+    const res = await engineer.post('/api/find-copies').send({ language: 'python', text: NESTED_LAMBDAS }).expect(422);
+    expect(Date.now() - started).toBeLessThan(15_000);
+    expect(res.body.error).toEqual({
+      code: 'analysis_limit',
+      message: 'the snippet was refused: functions and classes nested more than 100 deep (nesting limit)',
+      field: 'text',
+    });
+    await engineer.get('/api/health').expect(200);
+  }, 30_000);
+
+  it('stops analysing a snippet when the client disconnects', async () => {
+    const team = await buildTeam();
+    await buildRepository({ organisationId: team.organisation.id });
+    const engineer = await signedInAgent(app, team.engineer);
+    const request = engineer.post('/api/find-copies').timeout(2_500).send({ language: 'typescript', text: PATHOLOGICAL_TS });
+    const gone = request.then(
+      () => 'answered',
+      (error: { timeout?: number }) => (error.timeout ? 'client timed out' : String(error)),
+    );
+    await new Promise((resolve) => setTimeout(resolve, 1_000));
+    const busy = await cpuDuring(1_000);
+    expect(await gone).toBe('client timed out');
+    await new Promise((resolve) => setTimeout(resolve, 500));
+    const after = await cpuDuring(1_000);
+    expect(busy).toBeGreaterThan(200);
+    expect(after).toBeLessThan(busy / 2);
+    await engineer.get('/api/health').expect(200);
+  }, 30_000);
+});
