@@ -1,6 +1,7 @@
 import type { Server, ServerResponse } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { pathToFileURL } from 'node:url';
+import { closeSnippetPool } from '../analyzers/snippet-pool';
 import { createApp } from './app';
 import { loadConfig } from './config';
 import { disconnect, openDatabase } from './db';
@@ -19,6 +20,8 @@ export function serve(): Promise<Server> {
   return new Promise((resolve, reject) => {
     const server = app.listen(config.port, config.host, () => {
       track(server);
+      // Snippets of find copies are analysed in a pool of threads that outlives each request.
+      onShutdown('snippet analysis pool', closeSnippetPool);
       const { port } = server.address() as AddressInfo;
       console.log(`Doublet is serving on http://${config.host}:${port}/`);
       resolve(server);
