@@ -1,3 +1,4 @@
+import { isDatabaseUnavailable } from './db/unavailable';
 import fs from 'node:fs';
 import path from 'node:path';
 import express, { type ErrorRequestHandler } from 'express';
@@ -5,7 +6,6 @@ import { passport } from './auth/passport';
 import { createSessionMiddleware } from './auth/session';
 import { projectRoot } from './config';
 import { db } from './db/connection';
-import { isDatabaseUnavailable } from './db/unavailable';
 import { HttpError } from './errors';
 import { initModels } from './models';
 import { buildApiRouter, type ApiRouterOptions } from './routes';
@@ -46,6 +46,11 @@ export function createApp(options: AppOptions = {}) {
 
 /** Turns thrown errors into the one JSON error shape; never echoes request bodies (they may hold source code). */
 const errorHandler: ErrorRequestHandler = (error, _req, res, _next) => {
+  if (isDatabaseUnavailable(error)) {
+    // PostgreSQL is down or restarting: a temporary condition the pool recovers from by itself.
+    res.status(503).set('Retry-After', '5').json({ error: { code: 'database_unavailable', message: 'The database is unavailable right now; try again in a few seconds.' } });
+    return;
+  }
   if (error instanceof HttpError) {
     res.status(error.status).json({ error: { code: error.code, message: error.message, field: error.field } });
     return;
@@ -56,11 +61,6 @@ const errorHandler: ErrorRequestHandler = (error, _req, res, _next) => {
   }
   if (error?.type === 'entity.parse.failed') {
     res.status(400).json({ error: { code: 'invalid_json', message: 'The request body is not valid JSON.' } });
-    return;
-  }
-  if (isDatabaseUnavailable(error)) {
-    // PostgreSQL is down or restarting: a temporary condition the pool recovers from by itself.
-    res.status(503).set('Retry-After', '5').json({ error: { code: 'database_unavailable', message: 'The database is unavailable right now; try again in a few seconds.' } });
     return;
   }
   console.error('unhandled error:', error instanceof Error ? error.stack : error);
