@@ -26,6 +26,8 @@ export function loadConfig() {
     /** 0 lets the system pick a free port (tests, benchmarks); the server prints the one it got. */
     port: intFromEnv('PORT', 3030, { allowZero: true }),
     host: process.env.HOST ?? '127.0.0.1',
+    /** On SIGTERM/SIGINT, how long in-flight requests and background work may run before they are cut off. */
+    shutdownGraceMs: intFromEnv('SHUTDOWN_GRACE_MS', 10_000),
     /** When set, everything uses this server and the local cluster is never started. */
     externalDatabaseUrl: process.env.DATABASE_URL || undefined,
     pgPort,
@@ -37,8 +39,6 @@ export function loadConfig() {
     publicUrl: process.env.PUBLIC_URL ?? `http://127.0.0.1:${intFromEnv('PORT', 3030, { allowZero: true })}`,
     mailFrom: process.env.MAIL_FROM ?? 'Doublet <doublet@localhost>',
     secureCookies: process.env.SECURE_COOKIES === 'true',
-    /** On SIGTERM/SIGINT, how long in-flight requests and background work may run before they are cut off. */
-    shutdownGraceMs: intFromEnv('SHUTDOWN_GRACE_MS', 10_000),
   };
 }
 
