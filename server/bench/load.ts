@@ -19,12 +19,14 @@ import { initModels } from '../models';
  * cluster or on DATABASE_URL's server; created fresh, dropped at the end unless `--keep`), starts
  * the server as its own process (`node --import tsx server/index.ts`, PORT=0, loopback only) so the
  * load generator does not share its event loop, signs in as the demo engineer and runs autocannon
- * against each route at each connection count for a fixed duration. Latency percentiles are
- * computed from every response time (autocannon's own summary has no p95). The server is stopped
- * with SIGTERM at the end, as an operator would.
+ * against each route (after a 3 s warm-up at the highest connection count) at each connection
+ * count for a fixed duration. Latency percentiles are computed from every response time
+ * (autocannon's own summary has no p95). The server is stopped with SIGTERM at the end, as an
+ * operator would.
  */
 
 const BENCH_DATABASE = 'doublet_bench_load';
+const WARM_UP_S = 3;
 
 /** An engineer's paste: the demo's pricing rule (server/demo/freight-platform) with its names changed. */
 const SNIPPET = `function chargeFor(cars, km, terms) {
@@ -215,7 +217,9 @@ async function main() {
     ];
     const rows: Row[] = [];
     for (const target of targets) {
-      await measure(server.base, target, 10, 1, headers); // warm-up, not reported
+      // Warm-up, not reported: JIT, the pool's connections and, for find copies, every analysis
+      // thread (the pool starts them as load arrives; a start takes a second or more under load).
+      await measure(server.base, target, Math.max(...levels), WARM_UP_S, headers);
       for (const connections of levels) {
         const row = await measure(server.base, target, connections, durationS, headers);
         console.error(`  ${row.route} @${connections}: ${row.perSecond.toFixed(0)} req/s, p95 ${row.p95.toFixed(1)} ms, ${row.errors} errors`);
