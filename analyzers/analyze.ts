@@ -19,8 +19,8 @@ function describe(error: unknown): string {
  * Cuts one source file into fragments with their token identities and shingle sets.
  * Never throws on bad source: a file that cannot be parsed, or goes over one of the analysis
  * bounds (ANALYSIS_LIMITS: nesting depth, fragments, tokens of nested fragments), comes back with
- * `error` set (naming the bound) and no fragments; a file parsed with recovered syntax errors keeps its fragments and reports
- * `syntaxErrors`. Throws only on invalid options (a caller bug).
+ * `error` set (naming the bound) and no fragments; a file parsed with recovered syntax errors
+ * keeps its fragments and reports `syntaxErrors`. Throws only on invalid options (a caller bug).
  *
  * @example
  * const { fragments } = await analyzeFile('src/cart.ts', text, { shingleSize: 3 });

@@ -105,21 +105,41 @@ export async function analyzeFiles(
 }
 
 async function runOne(pool: Piscina, task: AnalyzeTask, timeoutMs: number): Promise<FileAnalysis> {
+  const run = await runTimed<FileAnalysis>(pool, task, timeoutMs);
+  if (run.ok) return run.value;
+  const language = analyzerForPath(task.path)?.id ?? 'unknown';
+  const message = run.timedOut
+    ? `cut off after ${timeoutMs} ms (time limit per file)`
+    : `analysis failed: ${run.error instanceof Error ? run.error.message.slice(0, 300) : String(run.error)}`;
+  return { path: task.path, language, fragments: [], error: message };
+}
+
+/** How a task run by runTimed ended: its value, or the error (and whether the time limit caused it). */
+export type TimedRun<T> = { ok: true; value: T } | { ok: false; timedOut: boolean; error: unknown };
+
+/**
+ * Runs one task on a pool thread under a time limit, counted from now: past it, or when `signal`
+ * aborts, the task is aborted and its thread terminated (tasks are one a thread, so no other work
+ * is lost). Never rejects.
+ *
+ * @example const run = await runTimed<FileAnalysis>(pool, task, 20_000); // { ok: false, timedOut: true, … }
+ */
+export async function runTimed<T>(pool: Piscina, task: object, timeoutMs: number, signal?: AbortSignal): Promise<TimedRun<T>> {
   const controller = new AbortController();
+  const stop = () => controller.abort();
+  signal?.addEventListener('abort', stop, { once: true });
+  if (signal?.aborted) controller.abort();
   let timedOut = false;
   const timer = setTimeout(() => {
     timedOut = true;
     controller.abort();
   }, timeoutMs);
   try {
-    return (await pool.run(task, { signal: controller.signal })) as FileAnalysis;
+    return { ok: true, value: (await pool.run(task, { signal: controller.signal })) as T };
   } catch (error) {
-    const language = analyzerForPath(task.path)?.id ?? 'unknown';
-    const message = timedOut
-      ? `cut off after ${timeoutMs} ms (time limit per file)`
-      : `analysis failed: ${error instanceof Error ? error.message.slice(0, 300) : String(error)}`;
-    return { path: task.path, language, fragments: [], error: message };
+    return { ok: false, timedOut, error };
   } finally {
     clearTimeout(timer);
+    signal?.removeEventListener('abort', stop);
   }
 }

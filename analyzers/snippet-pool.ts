@@ -1,7 +1,7 @@
 import os from 'node:os';
 import { Piscina } from 'piscina';
 import type { AnalysisLimit } from './limits';
-import { DEFAULT_TIMEOUT_MS, WORKER_URL } from './pool';
+import { DEFAULT_TIMEOUT_MS, runTimed, WORKER_URL, type TimedRun } from './pool';
 import type { AnalyzeOptions, Fragment } from './types';
 import type { SnippetTask } from './worker-task';
 
@@ -102,30 +102,20 @@ export async function analyzeSnippetInPool(language: string, text: string, optio
   }
   // acquire gives up only when the signal aborts.
   if (!(await acquire(signal))) throw signal?.reason;
-  const controller = new AbortController();
-  const stop = () => controller.abort();
-  signal?.addEventListener('abort', stop, { once: true });
-  let timedOut = false;
-  const timer = setTimeout(() => {
-    timedOut = true;
-    controller.abort();
-  }, timeoutMs);
+  let run: TimedRun<SnippetOutcome>;
   try {
-    signal?.throwIfAborted();
     const task: SnippetTask = { snippet: { language, text, options: analyzeOptions } };
-    return (await snippetPool().run(task, { signal: controller.signal })) as SnippetOutcome;
-  } catch (error) {
-    signal?.throwIfAborted();
-    if (timedOut) return { ok: false, refusal: 'limit', limit: 'time', message: `the analysis took longer than ${timeoutMs} ms (time limit)` };
-    if ((error as { code?: string }).code === 'ERR_WORKER_OUT_OF_MEMORY') {
-      return { ok: false, refusal: 'limit', limit: 'memory', message: 'the analysis ran out of memory (memory limit of a snippet thread)' };
-    }
-    throw error;
+    run = await runTimed<SnippetOutcome>(snippetPool(), task, timeoutMs, signal);
   } finally {
-    clearTimeout(timer);
-    signal?.removeEventListener('abort', stop);
     release();
   }
+  signal?.throwIfAborted();
+  if (run.ok) return run.value;
+  if (run.timedOut) return { ok: false, refusal: 'limit', limit: 'time', message: `the analysis took longer than ${timeoutMs} ms (time limit)` };
+  if ((run.error as { code?: string } | null)?.code === 'ERR_WORKER_OUT_OF_MEMORY') {
+    return { ok: false, refusal: 'limit', limit: 'memory', message: 'the analysis ran out of memory (memory limit of a snippet thread)' };
+  }
+  throw run.error;
 }
 
 /** Ends the snippet threads (tests and shutdown); the next snippet starts a new pool. */

@@ -39,6 +39,15 @@ export function loadConfig() {
     publicUrl: process.env.PUBLIC_URL ?? `http://127.0.0.1:${intFromEnv('PORT', 3030, { allowZero: true })}`,
     mailFrom: process.env.MAIL_FROM ?? 'Doublet <doublet@localhost>',
     secureCookies: process.env.SECURE_COOKIES === 'true',
+    /** Limits on uploaded archives and git trees, and the git cache (README, "Limits of uploads"). */
+    ingest: {
+      maxArchiveBytes: intFromEnv('DOUBLET_MAX_ARCHIVE_BYTES', 512 * 1024 * 1024),
+      maxUnpackedBytes: intFromEnv('DOUBLET_MAX_UNPACKED_BYTES', 2 * 1024 * 1024 * 1024),
+      maxEntries: intFromEnv('DOUBLET_MAX_ARCHIVE_ENTRIES', 200_000),
+      maxExpansionRatio: intFromEnv('DOUBLET_MAX_EXPANSION_RATIO', 200),
+      gitCacheDir: path.resolve(process.env.DOUBLET_GIT_CACHE_DIR ?? path.join(dataDir, 'git-cache')),
+      gitTimeoutSeconds: intFromEnv('DOUBLET_GIT_TIMEOUT_SECONDS', 300),
+    },
   };
 }
 

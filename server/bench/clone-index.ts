@@ -9,6 +9,7 @@ import { connect, db, disconnect } from '../db/connection';
 import { migrateUp } from '../db/migrate';
 import { createDatabaseIfMissing, dropDatabase, ensureDatabaseServer } from '../db/postgres';
 import { loadConfig } from '../config';
+import { DEFAULT_REPOSITORY_SETTINGS } from '../../shared/constants';
 import { parseThreshold } from '../matching/threshold';
 import { formatBytes, formatCount, formatMs } from './format';
 import { Collection, mix, random } from './synthetic';
@@ -43,7 +44,7 @@ const DEFAULT_SIZES = [200_000, 1_000_000];
 const LOAD_CHUNK = 25_000;
 /** New sets in the probe-rate measurement, and the probe batch size used everywhere. */
 const PROBE_BATCH = 10_000;
-const FIND_THRESHOLD = parseThreshold('0.8');
+const FIND_THRESHOLD = parseThreshold(String(DEFAULT_REPOSITORY_SETTINGS.threshold));
 /** Time kept for the measurements after the last load (the 10k batch and the find-copies queries). */
 const MEASURE_RESERVE_MS = 150_000;
 
@@ -241,7 +242,7 @@ function report(stages: Stage[], meta: { seed: number; queries: number; peakRssM
   out.push(
     'Load rate counts every input set (exact copies included) over the addSets transactions; store = dictionary, set rows and ' +
       'prefix entries, probe = prefix lookups, position filter, verification and set pairs. The 10k batch runs in a transaction ' +
-      'that is rolled back. Find copies is findSimilarSets at t = 0.8, one query at a time, over the pool.',
+      `that is rolled back. Find copies is findSimilarSets at t = ${DEFAULT_REPOSITORY_SETTINGS.threshold}, one query at a time, over the pool.`,
   );
   return out.join('\n');
 }

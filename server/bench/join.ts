@@ -4,7 +4,8 @@ import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import { analyzeFiles } from '../../analyzers';
 import { readFolder } from '../ingest/folder';
-import { newJoinStats, selfJoin, type JoinMethod, type JoinProfile } from '../matching/join';
+import { DEFAULT_REPOSITORY_SETTINGS } from '../../shared/constants';
+import { JOIN_METHODS, newJoinStats, selfJoin, type JoinMethod, type JoinProfile } from '../matching/join';
 import { rankIntegerSets, rankShingles } from '../matching/order';
 import { parseThreshold } from '../matching/threshold';
 import { formatCount, formatMs } from './format';
@@ -38,7 +39,6 @@ import { random, RELABEL, VOCABULARY, ZIPF_TABLE, zipfTable } from './synthetic'
 const DEFAULT_SIZES = [10_000, 20_000, 100_000, 1_000_000];
 /** Beyond these sizes a method takes minutes (it is quadratic in the sets of similar size). */
 const QUADRATIC_LIMIT = 20_000;
-const METHODS: JoinMethod[] = ['brute', 'length', 'prefix', 'position', 'bitmap', 'auto'];
 
 /**
  * The synthetic collection: `count` sets of token ids (not yet ranked). Token ids are scrambled
@@ -151,7 +151,7 @@ async function analyzeFolders(folders: string[]): Promise<string[][]> {
   const sets: string[][] = [];
   for (const folder of folders) {
     const { files } = await readFolder(folder);
-    const analyzed = await analyzeFiles(files, { minTokens: 50, shingleSize: 3 });
+    const analyzed = await analyzeFiles(files, { minTokens: DEFAULT_REPOSITORY_SETTINGS.minTokens, shingleSize: DEFAULT_REPOSITORY_SETTINGS.shingleSize });
     for (const file of analyzed.files) for (const fragment of file.fragments) sets.push(fragment.shingles);
   }
   return sets;
@@ -162,7 +162,7 @@ async function main(): Promise<void> {
     args: process.argv.slice(2),
     options: {
       sizes: { type: 'string' },
-      threshold: { type: 'string', default: '0.8' },
+      threshold: { type: 'string', default: String(DEFAULT_REPOSITORY_SETTINGS.threshold) },
       seed: { type: 'string', default: '7' },
       methods: { type: 'string' },
       child: { type: 'boolean', default: false },
@@ -181,7 +181,7 @@ async function main(): Promise<void> {
   }
   // With --real the collection is the analysed folders: one "size", whatever it turns out to be.
   const sizes = real ? [0] : values.sizes ? values.sizes.split(',').map(Number) : DEFAULT_SIZES;
-  const methods = values.methods ? (values.methods.split(',') as JoinMethod[]) : METHODS;
+  const methods = values.methods ? (values.methods.split(',') as JoinMethod[]) : JOIN_METHODS;
   const quadraticLimit = values['quadratic-limit'] ? Number(values['quadratic-limit']) : QUADRATIC_LIMIT;
   const self = fileURLToPath(import.meta.url);
   const rows: CellResult[] = [];

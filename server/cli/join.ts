@@ -1,5 +1,6 @@
 import { readFile } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
+import { DEFAULT_REPOSITORY_SETTINGS } from '../../shared/constants';
 import { JOIN_METHODS, jaccard, newJoinStats, selfJoin, type JoinMethod } from '../matching/join';
 import { rankIntegerSets } from '../matching/order';
 import { parseThreshold, type Threshold } from '../matching/threshold';
@@ -8,7 +9,7 @@ import { elapsed, guarded, InputError, processIo, UsageError, type CommandIo } f
 const USAGE = `usage: doublet join --input FILE [--threshold T] [--method ${JOIN_METHODS.join('|')}]
 
 FILE holds one set per line: space-separated non-negative integers (a repeat counts once).
-Prints every pair with Jaccard similarity ≥ T (default 0.8) as "i j similarity", with 0-based
+Prints every pair with Jaccard similarity ≥ T (default ${DEFAULT_REPOSITORY_SETTINGS.threshold}) as "i j similarity", with 0-based
 line numbers i < j; counts and times go to stderr. --algorithm is the old name of --method.
 `;
 
@@ -62,7 +63,7 @@ function parseMethod(value: string | undefined): JoinMethod {
 /** Parses --threshold with threshold.ts, turning its error into a usage error. */
 export function thresholdOption(value: string | undefined): Threshold {
   try {
-    return parseThreshold(value ?? '0.8');
+    return parseThreshold(value ?? String(DEFAULT_REPOSITORY_SETTINGS.threshold));
   } catch (error) {
     throw new UsageError(`--threshold: ${(error as Error).message}`);
   }

@@ -1,5 +1,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
+import os from 'node:os';
 import { analyzeSnippet, analyzeSnippetInPool, closeSnippetPool } from '../../analyzers';
+import { MAX_WAITING_SNIPPETS } from '../../analyzers/snippet-pool';
 
 afterAll(() => closeSnippetPool());
 
@@ -55,6 +57,21 @@ describe('analyzeSnippetInPool', () => {
     const after = await cpuDuring(1_000);
     expect(busy).toBeGreaterThan(200);
     expect(after).toBeLessThan(busy / 2);
+  }, 30_000);
+
+  it('refuses a snippet as busy when every thread is taken and the waiting line is full, and lets an aborted waiter go', async () => {
+    const controller = new AbortController();
+    const held = Array.from({ length: os.availableParallelism() + MAX_WAITING_SNIPPETS }, () =>
+      analyzeSnippetInPool('typescript', PATHOLOGICAL_TS, { signal: controller.signal }).catch((error: unknown) => error),
+    );
+    expect(await analyzeSnippetInPool('python', 'x = 1')).toEqual({
+      ok: false,
+      refusal: 'busy',
+      message: `${MAX_WAITING_SNIPPETS} snippets are waiting to be analysed already; try again shortly`,
+    });
+    controller.abort(new Error('client gone'));
+    for (const outcome of await Promise.all(held)) expect(outcome).toEqual(new Error('client gone'));
+    expect(await analyzeSnippetInPool('python', 'x = 1')).toMatchObject({ ok: true });
   }, 30_000);
 
   describe('edge cases', () => {
