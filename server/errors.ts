@@ -47,3 +47,42 @@ export class ConflictError extends HttpError {
     super(409, 'conflict', message, field);
   }
 }
+
+/**
+ * What each unique constraint a request can run into means, by PostgreSQL's constraint name
+ * (the default `<table>_<columns>_key` of the migrations). The message never echoes the stored
+ * values: the database's own detail text would.
+ */
+const UNIQUE_CONSTRAINTS: Record<string, { message: string; field: string }> = {
+  repositories_organisation_id_name_key: { message: 'Another repository of this organisation already has this name.', field: 'name' },
+  snapshots_repository_id_label_key: { message: 'This repository already has a snapshot with this label.', field: 'label' },
+  users_email_key: { message: 'Someone with this e-mail address already has an account.', field: 'email' },
+};
+
+/** PostgreSQL's SQLSTATE for a unique-constraint violation. */
+const UNIQUE_VIOLATION = '23505';
+
+/**
+ * The error a request should answer with: a unique-constraint violation (SQLSTATE 23505, as
+ * Sequelize wraps it or as the driver throws it) becomes a 409 ConflictError naming the field;
+ * anything else is returned as it is.
+ *
+ * @example next(fromDatabaseError(error)) // a duplicate repository name → 409 on `name`
+ */
+export function fromDatabaseError(error: unknown): unknown {
+  const cause = (error as { parent?: { code?: unknown; constraint?: unknown } } | null)?.parent ?? error;
+  const { code, constraint } = (cause ?? {}) as { code?: unknown; constraint?: unknown };
+  if (code !== UNIQUE_VIOLATION) return error;
+  const known = typeof constraint === 'string' ? UNIQUE_CONSTRAINTS[constraint] : undefined;
+  return known ? new ConflictError(known.message, known.field) : new ConflictError('This would duplicate something already stored.');
+}
+
+/**
+ * The record, or a 404 naming what was not found.
+ *
+ * @example const repository = found(await findRepository(organisationId, id), 'Repository');
+ */
+export function found<T>(record: T | null | undefined, what: string): T {
+  if (record === null || record === undefined) throw new NotFoundError(what);
+  return record;
+}

@@ -1,13 +1,12 @@
 import { writeFile } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
-import type { ScanReport } from '../../shared/api/scan-report';
-import { repositoryThreshold } from '../clone-index/options';
-import { clonePairsAcross, clonePairsWithin, snapshotInstances } from '../clone-index/snapshot-pairs';
 import { disconnect } from '../db';
-import { Repository, Snapshot } from '../models';
+import { findRepositoryByName } from '../queries/repositories';
+import { findSnapshotByLabel } from '../queries/snapshots';
+import { snapshotReport } from '../reports/snapshot';
+import { REPORT_FORMATS, writeReport, type ReportFormat } from '../reports/write';
 import { guarded, InputError, processIo, UsageError, type CommandIo } from './command';
 import { openCliDatabase, resolveOrganisation } from './database';
-import { buildReport, REPORT_FORMATS, writeReport, type ReportFormat } from './report';
 
 const USAGE = `usage: doublet classes --repository NAME --label LABEL [--format ${REPORT_FORMATS.join('|')}] [--out FILE]
                        [--cross] [--organisation NAME]
@@ -45,9 +44,9 @@ export function run(args: string[], io: CommandIo = processIo()): Promise<number
     await openCliDatabase();
     try {
       const organisation = await resolveOrganisation(values.organisation);
-      const repository = await Repository.findOne({ where: { organisationId: organisation.id, name: values.repository } });
+      const repository = await findRepositoryByName(organisation.id, values.repository);
       if (!repository) throw new InputError(`no repository named "${values.repository}"`);
-      const snapshot = await Snapshot.findOne({ where: { repositoryId: repository.id, label: values.label } });
+      const snapshot = await findSnapshotByLabel(repository.id, values.label);
       if (!snapshot) throw new InputError(`repository "${values.repository}" has no snapshot "${values.label}"`);
       if (snapshot.status !== 'ready') throw new InputError(`snapshot "${values.label}" is ${snapshot.status}${snapshot.error ? `: ${snapshot.error}` : ''}`);
       const report = await snapshotReport(repository, snapshot, Boolean(values.cross));
@@ -59,42 +58,4 @@ export function run(args: string[], io: CommandIo = processIo()): Promise<number
       await disconnect();
     }
   });
-}
-
-/** The clone report of a snapshot from the database, with cross-repository pairs when asked. */
-export async function snapshotReport(repository: Repository, snapshot: Snapshot, cross: boolean): Promise<ScanReport> {
-  const settings = snapshot.settings as { threshold: number; minTokens: number; shingleSize: number };
-  const threshold = repositoryThreshold({ threshold: settings.threshold });
-  const instances = await snapshotInstances(undefined, snapshot.id);
-  const pairs = await clonePairsWithin(undefined, instances, threshold);
-  const report = buildReport({
-    settings: { threshold: settings.threshold, minTokens: settings.minTokens, shingleSize: settings.shingleSize, repository: repository.name, snapshot: snapshot.label },
-    fragments: instances.map((x) => ({
-      file: x.path,
-      name: x.name,
-      startLine: x.startLine,
-      endLine: x.endLine,
-      tokens: x.tokens,
-      tokenStart: x.tokenStart,
-      tokenEnd: x.tokenEnd,
-      rawHash: x.rawHash,
-      normalizedHash: x.normalizedHash,
-    })),
-    pairs,
-    files: { analysed: snapshot.fileCount - snapshot.skippedCount, skipped: snapshot.skippedCount, failed: snapshot.failedCount },
-  });
-  if (!cross) return report;
-  const others = new Map<string, number>();
-  for (const pair of await clonePairsAcross(undefined, repository.id, instances, threshold)) {
-    const o = pair.other;
-    const key = `${o.snapshotId}:${o.snapshotFileId}:${o.fragmentId}`;
-    let id = others.get(key);
-    if (id === undefined) {
-      id = instances.length + others.size;
-      others.set(key, id);
-      report.fragments.push({ id, file: o.path, name: o.name, startLine: o.startLine, endLine: o.endLine, tokens: o.tokens, repository: `${o.repositoryName}@${o.snapshotLabel}` });
-    }
-    report.pairs.push({ a: pair.a, b: id, similarity: pair.similarity, type: pair.type });
-  }
-  return report;
 }

@@ -1,5 +1,7 @@
 import { readFile } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
+import { SNIPPET_LANGUAGES } from '../../shared/api/find-copies';
+import { DEFAULT_REPOSITORY_SETTINGS } from '../../shared/constants';
 import { findCopies } from '../commands/findCopies';
 import { disconnect } from '../db';
 import { HttpError } from '../errors';
@@ -10,8 +12,11 @@ import { formatSimilarity } from './join';
 const USAGE = `usage: doublet find-copies --language L [--threshold T] [--organisation NAME] [--json] FILE
 
 Prints every fragment, in the latest snapshot of each repository, whose similarity to the code in
-FILE (a function or a few lines; "-" reads standard input) is at least T (default 0.8).
+FILE (a function or a few lines; "-" reads standard input) is at least T (default ${DEFAULT_REPOSITORY_SETTINGS.threshold}).
+L is one of ${SNIPPET_LANGUAGES.join(', ')}.
 `;
+
+const isSnippetLanguage = (value: string): value is (typeof SNIPPET_LANGUAGES)[number] => (SNIPPET_LANGUAGES as readonly string[]).includes(value);
 
 /** `doublet find-copies`: a snippet → every indexed copy of it. */
 export function run(args: string[], io: CommandIo = processIo()): Promise<number> {
@@ -32,6 +37,8 @@ export function run(args: string[], io: CommandIo = processIo()): Promise<number
       return 0;
     }
     if (!values.language) throw new UsageError('--language is required');
+    const language = values.language;
+    if (!isSnippetLanguage(language)) throw new InputError(`--language must be one of ${SNIPPET_LANGUAGES.join(', ')} (got "${language}")`);
     if (positionals.length !== 1) throw new UsageError('give exactly one snippet file');
     const threshold = values.threshold === undefined ? undefined : Number(values.threshold);
     if (threshold !== undefined && !(threshold > 0 && threshold <= 1)) throw new UsageError('--threshold must be a number in (0, 1]');
@@ -41,7 +48,7 @@ export function run(args: string[], io: CommandIo = processIo()): Promise<number
     await openCliDatabase();
     try {
       const organisation = await resolveOrganisation(values.organisation);
-      const copies = await findCopies({ organisationId: organisation.id, language: values.language, text, threshold }).catch((error: unknown) => {
+      const copies = await findCopies({ organisationId: organisation.id, language, text, threshold }).catch((error: unknown) => {
         if (error instanceof HttpError) throw new InputError(error.message);
         throw error;
       });

@@ -6,7 +6,7 @@ import { createRepository, repositorySettings, updateRepository } from '../comma
 import { loadSnapshot } from '../commands/loadSnapshot';
 import { disconnect } from '../db';
 import { HttpError } from '../errors';
-import { Repository } from '../models';
+import { findRepositoryByName } from '../queries/repositories';
 import { guarded, InputError, positiveIntegerOption, processIo, UsageError, type CommandIo } from './command';
 import { openCliDatabase, resolveOrganisation } from './database';
 
@@ -55,7 +55,7 @@ export function run(args: string[], io: CommandIo = processIo()): Promise<number
     await openCliDatabase();
     try {
       const organisation = await resolveOrganisation(values.organisation);
-      let repository = await Repository.findOne({ where: { organisationId: organisation.id, name: values.repository } });
+      let repository = await findRepositoryByName(organisation.id, values.repository);
       try {
         if (!repository) repository = await createRepository(organisation.id, { name: values.repository, ...given });
         else if (Object.keys(given).length) repository = await updateRepository(repository, given);

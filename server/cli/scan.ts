@@ -7,18 +7,21 @@ import type { FileAnalysis, SourceFile } from '../../analyzers/types';
 import { readFolder } from '../ingest/folder';
 import { jaccard, newJoinStats, selfJoin } from '../matching/join';
 import { rankShingles } from '../matching/order';
+import { DEFAULT_REPOSITORY_SETTINGS as DEFAULTS } from '../../shared/constants';
 import { thresholdValue } from '../matching/threshold';
+import { buildReport, type ReportFragmentInput } from '../reports/build';
+import { exceedsBudget, parseBudget } from '../reports/budget';
+import { REPORT_FORMATS, writeReport, type ReportFormat } from '../reports/write';
 import { elapsed, guarded, InputError, positiveIntegerOption, processIo, UsageError, type CommandIo } from './command';
 import { thresholdOption } from './join';
-import { buildReport, overBudget, parseBudget, REPORT_FORMATS, writeReport, type ReportFormat, type ReportFragmentInput } from './report';
 
 const USAGE = `usage: doublet scan PATH... [--threshold T] [--min-tokens N] [--shingle K]
                    [--format ${REPORT_FORMATS.join('|')}] [--out FILE] [--budget R]
 
 Analyses the folders in memory (no database), finds every pair of functions whose shingle sets
-have Jaccard similarity ≥ T (default 0.8), groups them into clone classes and reports them.
-  --min-tokens N  ignore functions with fewer than N tokens (default 50)
-  --shingle K     shingle size (default 3)
+have Jaccard similarity ≥ T (default ${DEFAULTS.threshold}), groups them into clone classes and reports them.
+  --min-tokens N  ignore functions with fewer than N tokens (default ${DEFAULTS.minTokens})
+  --shingle K     shingle size (default ${DEFAULTS.shingleSize})
   --format F      text (default), json, csv or sarif
   --out FILE      write the report to FILE instead of stdout
   --budget R      exit 1 when the clone ratio is above R (0.05 or 5%)
@@ -113,8 +116,8 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
     }
     if (positionals.length === 0) throw new UsageError('give at least one folder to scan');
     const t = thresholdOption(values.threshold);
-    const minTokens = positiveIntegerOption(values['min-tokens'], '--min-tokens') ?? 50;
-    const shingleSize = positiveIntegerOption(values.shingle, '--shingle') ?? 3;
+    const minTokens = positiveIntegerOption(values['min-tokens'], '--min-tokens') ?? DEFAULTS.minTokens;
+    const shingleSize = positiveIntegerOption(values.shingle, '--shingle') ?? DEFAULTS.shingleSize;
     const format = (values.format ?? 'text') as ReportFormat;
     if (!REPORT_FORMATS.includes(format)) throw new UsageError(`--format must be one of ${REPORT_FORMATS.join(', ')} (got "${values.format}")`);
     let budget;
@@ -144,12 +147,12 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
       }
 
       progress.step(`analysing ${files.length.toLocaleString('en-US')} files`);
-      const analysed = await analyzeFiles(files, { minTokens, shingleSize });
-      skipped += analysed.skipped.length;
-      const failed = analysed.files.filter((f: FileAnalysis) => f.error !== undefined).length;
+      const analyzed = await analyzeFiles(files, { minTokens, shingleSize });
+      skipped += analyzed.skipped.length;
+      const failed = analyzed.files.filter((f: FileAnalysis) => f.error !== undefined).length;
       const fragments: ReportFragmentInput[] = [];
       const shingleSets: string[][] = [];
-      for (const file of analysed.files) {
+      for (const file of analyzed.files) {
         for (const fragment of file.fragments) {
           fragments.push({
             file: file.path,
@@ -179,7 +182,7 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
         settings: { threshold: thresholdValue(t), minTokens, shingleSize, roots: positionals },
         fragments,
         pairs,
-        files: { analysed: analysed.files.length, skipped, failed },
+        files: { analyzed: analyzed.files.length, skipped, failed },
         join: { candidates: stats.candidates, verified: stats.verified },
         durationMs: performance.now() - start,
       });
@@ -190,9 +193,9 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
 
       const ratio = `${(report.stats.cloneRatio * 100).toFixed(1)}%`;
       if (values.out || format !== 'text') {
-        io.err(`${report.stats.fragments} fragments, ${report.stats.pairs} clone pairs, ${report.stats.classes} clone classes, clone ratio ${ratio} (${elapsed(start)} ms)\n`);
+        io.err(`${report.stats.fragmentCount} fragments, ${report.stats.pairCount} clone pairs, ${report.stats.classCount} clone classes, clone ratio ${ratio} (${elapsed(start)} ms)\n`);
       }
-      if (budget && overBudget(report, budget)) {
+      if (budget && exceedsBudget(report.stats, budget)) {
         io.err(`clone ratio ${ratio} is above the budget ${budget.text}\n`);
         return 1;
       }

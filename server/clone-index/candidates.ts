@@ -1,3 +1,4 @@
+import { jaccard } from '../matching/similarity';
 import { minOverlap, overlapAtLeast, prefixLength, reaches, sizeBounds, type Threshold } from '../matching/threshold';
 
 /** A candidate of a probe: an indexed set that shares a rank with the probe's prefix and passed the position filter. */
@@ -70,6 +71,18 @@ export function probeSizeBounds(t: Threshold, probe = 'p'): [string, string] {
 }
 
 /**
+ * prefixLength(t, size) as an SQL expression over an integer column, for statements that write
+ * prefix entries inside the database (the rebuild): size − ⌈t·size⌉ + 1 in integer division, 0
+ * for an empty set. A test evaluates it in PostgreSQL against prefixLength for every size.
+ *
+ * @example prefixLengthSql({ p: 3, q: 5 }, 'ss.size') // '(case when ss.size = 0 then 0 else ss.size - ((3::bigint * ss.size + 4) / 5) + 1 end)::int'
+ */
+export function prefixLengthSql(t: Threshold, size: string): string {
+  // bigint inside (p·size passes 2^31 for six-decimal thresholds), int outside (array subscripts)
+  return `(case when ${size} = 0 then 0 else ${size} - ((${t.p}::bigint * ${size} + ${t.q - 1}) / ${t.q}) + 1 end)::int`;
+}
+
+/**
  * Verifies candidates by merging the sorted rank arrays, with early exit. Returns only the pairs
  * that reach the threshold, with their exact overlap.
  */
@@ -86,7 +99,7 @@ export function verifyCandidates(
     if (!y) throw new Error(`candidate set ${setId} was not loaded for verification`);
     const overlap = overlapAtLeast(x, y, minOverlap(t, x.length, y.length));
     if (overlap > 0 && reaches(t, x.length, y.length, overlap)) {
-      matches.push({ probe, setId, size: y.length, overlap, similarity: overlap / (x.length + y.length - overlap) });
+      matches.push({ probe, setId, size: y.length, overlap, similarity: jaccard(overlap, x.length, y.length) });
     }
   }
   return matches;

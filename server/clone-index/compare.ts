@@ -1,14 +1,12 @@
 /**
  * Matching clone classes across two snapshots of one repository through their members.
- * A member is known across snapshots by its file path and qualified name (the n-th fragment of
+ * A fragment is known across snapshots by its file path and qualified name (the n-th fragment of
  * that name in the file), and it has changed when its raw token hash differs.
  */
+import type { ClassStatus } from '../../shared/api/snapshots';
 
-/** What a class is, compared with the previous snapshot. */
-export type ClassStatus = 'new' | 'unchanged' | 'grown' | 'shrunk' | 'edited' | 'drifted';
-
-/** A member as the comparison needs it. */
-export interface MemberIdentity {
+/** A fragment as the comparison needs it: who it is across snapshots, and its raw hash. */
+export interface FragmentIdentity {
   path: string;
   name: string;
   /** occurrence of this name within the file, 0-based, to tell apart same-named fragments */
@@ -16,8 +14,8 @@ export interface MemberIdentity {
   rawHash: string;
 }
 
-/** The key a member is known by across snapshots. */
-export function memberKey(m: Pick<MemberIdentity, 'path' | 'name' | 'occurrence'>): string {
+/** The key a fragment is known by across snapshots. */
+export function fragmentKey(m: Pick<FragmentIdentity, 'path' | 'name' | 'occurrence'>): string {
   return `${m.path}\u0000${m.name}\u0000${m.occurrence}`;
 }
 
@@ -41,12 +39,12 @@ export interface ClassComparison {
  * (gone; a class merged into a larger one is gone too, its members now count in the larger one).
  */
 export function compareClasses(
-  current: MemberIdentity[][],
-  previous: MemberIdentity[][],
+  current: FragmentIdentity[][],
+  previous: FragmentIdentity[][],
   previousFragments: Map<string, string>,
 ): { classes: ClassComparison[]; gone: number[] } {
   const previousClassOf = new Map<string, number>();
-  previous.forEach((members, index) => members.forEach((m) => previousClassOf.set(memberKey(m), index)));
+  previous.forEach((members, index) => members.forEach((m) => previousClassOf.set(fragmentKey(m), index)));
   const matched = new Set<number>();
   const classes = current.map((members): ClassComparison => {
     const votes = new Map<number, number>();
@@ -54,7 +52,7 @@ export function compareClasses(
     let existed = 0;
     let changedCount = 0;
     for (const m of members) {
-      const key = memberKey(m);
+      const key = fragmentKey(m);
       const before = previousFragments.get(key);
       const isChanged = before !== undefined && before !== m.rawHash;
       changed.push(isChanged);
@@ -79,7 +77,7 @@ export function compareClasses(
   return { classes, gone };
 }
 
-/** Numbers same-named fragments within a file in order (the `occurrence` of MemberIdentity). */
+/** Numbers same-named fragments within a file in order (the `occurrence` of FragmentIdentity). */
 export function occurrences(items: { path: string; name: string }[]): number[] {
   const seen = new Map<string, number>();
   return items.map((x) => {

@@ -18,9 +18,7 @@ export async function resolveShingles(
   if (unknown.length === 0) return ranks;
   // most frequent first, so it gets the highest of the new ranks; ties by text for determinism
   unknown.sort((a, b) => counts.get(b)! - counts.get(a)! || (a < b ? -1 : a > b ? 1 : 0));
-  const [{ min }] = await select<{ min: number | null }>(tx, 'select min(rank) as min from shingles');
-  const top = (min ?? 0) - 1;
-  const newRanks = unknown.map((_, i) => top - i);
+  const newRanks = await ranksBelowKnown(tx, unknown.length);
   for (const [start, end] of chunks(unknown.length, LOOKUP_CHUNK)) {
     await execute(tx, 'insert into shingles (text, rank) select * from unnest($1::text[], $2::int[])', [
       unknown.slice(start, end),
@@ -29,6 +27,17 @@ export async function resolveShingles(
   }
   unknown.forEach((s, i) => ranks.set(s, newRanks[i]));
   return ranks;
+}
+
+/**
+ * `count` ranks below every rank in the dictionary, descending (min − 1, min − 2, …): the ranks
+ * of new shingles, which are rarer than anything indexed, so no stored set changes order. A
+ * probe with shingles the dictionary lacks uses them too, without storing them.
+ */
+export async function ranksBelowKnown(tx: Transaction | undefined, count: number): Promise<number[]> {
+  const [{ min }] = await select<{ min: number | null }>(tx, 'select min(rank) as min from shingles');
+  const top = (min ?? 0) - 1;
+  return Array.from({ length: count }, (_, i) => top - i);
 }
 
 /** Ranks of the known shingles among `texts` (unknown ones are absent from the map). */

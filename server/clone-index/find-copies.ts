@@ -1,7 +1,7 @@
 import type { Transaction } from 'sequelize';
 import { type Threshold } from '../matching/threshold';
-import { lookupShingles } from './dictionary';
-import { probeSets } from './sets';
+import { lookupShingles, ranksBelowKnown } from './dictionary';
+import { probeSets } from './probe';
 import { select } from './sql';
 
 /** A stored set similar to a probe, with the exact overlap. */
@@ -21,9 +21,9 @@ export async function findSimilarSets(tx: Transaction | undefined, shingles: str
   const distinct = [...new Set(shingles)];
   if (distinct.length === 0) return [];
   const known = await lookupShingles(tx, distinct);
-  const [{ min }] = await select<{ min: number | null }>(tx, 'select min(rank) as min from shingles');
-  let next = (min ?? 0) - 1;
-  const ranks = Int32Array.from(distinct, (s) => known.get(s) ?? next--).sort();
+  const unknown = await ranksBelowKnown(tx, distinct.filter((s) => !known.has(s)).length);
+  let next = 0;
+  const ranks = Int32Array.from(distinct, (s) => known.get(s) ?? unknown[next++]).sort();
   const { matches } = await probeSets(tx, [ranks], t, () => false);
   return matches
     .map((m) => ({ setId: m.setId, size: m.size, overlap: m.overlap, similarity: m.similarity }))

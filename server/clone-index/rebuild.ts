@@ -1,6 +1,7 @@
 import { db } from '../db/connection';
+import { prefixLengthSql } from './candidates';
+import { indexThreshold } from './options';
 import { execute, lockIndex, select } from './sql';
-import { indexThreshold } from './sets';
 
 /** What a rebuild did. */
 export interface RebuildResult {
@@ -18,7 +19,6 @@ export interface RebuildResult {
  */
 export async function rebuildIndex(): Promise<RebuildResult> {
   const started = performance.now();
-  const { p, q } = indexThreshold;
   return db().transaction(async (tx) => {
     await lockIndex(tx);
     await execute(
@@ -49,7 +49,7 @@ export async function rebuildIndex(): Promise<RebuildResult> {
       tx,
       `insert into prefix_entries (rank, set_id, position, size)
        select ss.ranks[i], ss.id, i - 1, ss.size
-         from shingle_sets ss, generate_series(1, ss.size - ((${p} * ss.size + ${q} - 1) / ${q}) + 1) as i
+         from shingle_sets ss, generate_series(1, ${prefixLengthSql(indexThreshold, 'ss.size')}) as i
         where ss.size > 0`,
     );
     const [counts] = await select<{ shingles: number; sets: number; entries: number }>(

@@ -1,10 +1,11 @@
 import type { Transaction } from 'sequelize';
 import { cloneType } from '../matching/classes';
+import { jaccard } from '../matching/similarity';
 import { reaches, type Threshold } from '../matching/threshold';
 import { select } from './sql';
 
 /** One fragment as it stands in one snapshot (a fragment row seen through a snapshot file). */
-export interface Instance {
+export interface SnapshotFragment {
   snapshotFileId: number;
   fragmentId: number;
   setId: number;
@@ -23,8 +24,8 @@ export interface Instance {
   normalizedHash: string;
 }
 
-/** A clone pair between two instances (indexes into the instance list), a < b. */
-export interface InstancePair {
+/** A clone pair between two fragments (indexes into the fragment list), a < b. */
+export interface FragmentPair {
   a: number;
   b: number;
   similarity: number;
@@ -32,8 +33,8 @@ export interface InstancePair {
 }
 
 /** Every fragment of a snapshot, ordered by path then position in the file. */
-export async function snapshotInstances(tx: Transaction | undefined, snapshotId: number): Promise<Instance[]> {
-  return select<Instance>(
+export async function snapshotFragments(tx: Transaction | undefined, snapshotId: number): Promise<SnapshotFragment[]> {
+  return select<SnapshotFragment>(
     tx,
     `select sf.id as "snapshotFileId", f.id as "fragmentId", f.set_id as "setId", s.size as "setSize",
             sf.path, sf.language, f.name, f.kind, f.start_line as "startLine", f.end_line as "endLine",
@@ -63,9 +64,9 @@ async function setPairsBetween(tx: Transaction | undefined, left: number[], righ
   );
 }
 
-function groupBySet(instances: Instance[]) {
+function groupBySet(fragments: SnapshotFragment[]) {
   const bySet = new Map<number, number[]>();
-  instances.forEach((x, i) => {
+  fragments.forEach((x, i) => {
     if (x.setSize === 0) return; // an empty set pairs with nothing
     const list = bySet.get(x.setId);
     if (list) list.push(i);
@@ -75,50 +76,50 @@ function groupBySet(instances: Instance[]) {
 }
 
 /**
- * The clone pairs among a snapshot's instances at threshold t: instances sharing one set
- * (similarity 1) and instances whose sets form a stored pair that reaches t (exact integer test).
+ * The clone pairs among a snapshot's fragments at threshold t: fragments sharing one set
+ * (similarity 1) and fragments whose sets form a stored pair that reaches t (exact integer test).
  * Sorted by (a, b).
  */
 export async function clonePairsWithin(
   tx: Transaction | undefined,
-  instances: Instance[],
+  fragments: SnapshotFragment[],
   t: Threshold,
-): Promise<InstancePair[]> {
-  const bySet = groupBySet(instances);
+): Promise<FragmentPair[]> {
+  const bySet = groupBySet(fragments);
   const ids = [...bySet.keys()];
-  const pairs: InstancePair[] = [];
+  const pairs: FragmentPair[] = [];
   const add = (i: number, j: number, similarity: number) => {
     const [a, b] = i < j ? [i, j] : [j, i];
-    pairs.push({ a, b, similarity, type: cloneType(instances[a], instances[b]) });
+    pairs.push({ a, b, similarity, type: cloneType(fragments[a], fragments[b]) });
   };
   for (const members of bySet.values()) {
     for (let x = 0; x < members.length; x++) for (let y = x + 1; y < members.length; y++) add(members[x], members[y], 1);
   }
   for (const p of await setPairsBetween(tx, ids, ids)) {
     if (!reaches(t, p.sizeA, p.sizeB, p.overlap)) continue;
-    const similarity = p.overlap / (p.sizeA + p.sizeB - p.overlap);
+    const similarity = jaccard(p.overlap, p.sizeA, p.sizeB);
     for (const i of bySet.get(p.setA)!) for (const j of bySet.get(p.setB)!) add(i, j, similarity);
   }
   return pairs.sort((x, y) => x.a - y.a || x.b - y.b);
 }
 
-/** A clone pair between an instance of this snapshot and one of another repository's snapshot. */
+/** A clone pair between a fragment of this snapshot and one of another repository's snapshot. */
 export interface CrossPair {
   a: number;
-  other: Instance & { repositoryId: number; repositoryName: string; snapshotId: number; snapshotLabel: string };
+  other: SnapshotFragment & { repositoryId: number; repositoryName: string; snapshotId: number; snapshotLabel: string };
   similarity: number;
   type: 1 | 2 | 3;
 }
 
 /**
- * Pairs between a snapshot's instances and the instances of the latest ready snapshot of every
+ * Pairs between a snapshot's fragments and the fragments of the latest ready snapshot of every
  * other repository of the same organisation, at threshold t. Kept apart from the pairs within the
  * repository; never across organisations.
  */
 export async function clonePairsAcross(
   tx: Transaction | undefined,
   repositoryId: number,
-  instances: Instance[],
+  fragments: SnapshotFragment[],
   t: Threshold,
 ): Promise<CrossPair[]> {
   const others = await select<{ id: number; label: string; repositoryId: number; repositoryName: string }>(
@@ -131,9 +132,9 @@ export async function clonePairsAcross(
     [repositoryId],
   );
   const result: CrossPair[] = [];
-  const bySet = groupBySet(instances);
+  const bySet = groupBySet(fragments);
   for (const other of others) {
-    const theirs = await snapshotInstances(tx, other.id);
+    const theirs = await snapshotFragments(tx, other.id);
     const theirBySet = groupBySet(theirs);
     const link = (mine: number[] | undefined, their: number[] | undefined, similarity: number) => {
       for (const a of mine ?? []) {
@@ -143,7 +144,7 @@ export async function clonePairsAcross(
             a,
             other: { ...o, repositoryId: other.repositoryId, repositoryName: other.repositoryName, snapshotId: other.id, snapshotLabel: other.label },
             similarity,
-            type: cloneType(instances[a], o),
+            type: cloneType(fragments[a], o),
           });
         }
       }
@@ -151,7 +152,7 @@ export async function clonePairsAcross(
     for (const [setId, mine] of bySet) link(mine, theirBySet.get(setId), 1);
     for (const p of await setPairsBetween(tx, [...bySet.keys()], [...theirBySet.keys()])) {
       if (!reaches(t, p.sizeA, p.sizeB, p.overlap)) continue;
-      const similarity = p.overlap / (p.sizeA + p.sizeB - p.overlap);
+      const similarity = jaccard(p.overlap, p.sizeA, p.sizeB);
       if (bySet.has(p.setA)) link(bySet.get(p.setA), theirBySet.get(p.setB), similarity);
       if (bySet.has(p.setB)) link(bySet.get(p.setB), theirBySet.get(p.setA), similarity);
     }

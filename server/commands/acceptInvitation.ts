@@ -1,4 +1,5 @@
 import type { Transaction } from 'sequelize';
+import type { AcceptInvitationInput } from '../../shared/api/invitations';
 import { hashPassword } from '../auth/passwords';
 import { hashToken } from '../auth/tokens';
 import { db } from '../db/connection';
@@ -24,12 +25,7 @@ export async function findUsableInvitation(token: string, transaction?: Transact
  * Accepts an invitation: creates the user with the invited role and the chosen password, and
  * spends the link. The invitation row is locked, so two clicks cannot create two accounts.
  */
-export async function acceptInvitation(input: {
-  token: string;
-  name: string;
-  password: string;
-  transaction?: Transaction;
-}): Promise<User> {
+export async function acceptInvitation(input: AcceptInvitationInput & { token: string; transaction?: Transaction }): Promise<User> {
   const passwordHash = await hashPassword(input.password);
   const write = async (transaction: Transaction) => {
     const invitation = await findUsableInvitation(input.token, transaction);

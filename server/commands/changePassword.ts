@@ -1,4 +1,5 @@
 import type { Transaction } from 'sequelize';
+import type { ChangePasswordInput } from '../../shared/api/session';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import { endSessionsOf } from '../auth/session';
 import { db } from '../db/connection';
@@ -9,13 +10,9 @@ import type { User } from '../models/User';
  * Changes a user's own password after checking the current one, and ends their other sessions
  * (a changed password should lock out whoever else was signed in); `keepSessionId` survives.
  */
-export async function changePassword(input: {
-  user: User;
-  currentPassword: string;
-  newPassword: string;
-  keepSessionId?: string;
-  transaction?: Transaction;
-}): Promise<User> {
+export async function changePassword(
+  input: ChangePasswordInput & { user: User; keepSessionId?: string; transaction?: Transaction },
+): Promise<User> {
   const { user, transaction } = input;
   if (!(await verifyPassword(input.currentPassword, user.passwordHash))) {
     throw new ValidationError('The current password is wrong.', 'currentPassword');

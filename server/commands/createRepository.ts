@@ -1,42 +1,20 @@
 import type { Transaction } from 'sequelize';
-import { DEFAULT_REPOSITORY_SETTINGS, INDEX_MIN_THRESHOLD } from '../../shared/constants';
-import { ConflictError, ValidationError } from '../errors';
-import { parseThreshold, thresholdValue } from '../matching/threshold';
+import type { CreateRepositoryInput, UpdateRepositoryInput } from '../../shared/api/repositories';
+import { DEFAULT_REPOSITORY_SETTINGS } from '../../shared/constants';
+import { servedThreshold } from '../clone-index/options';
 import { Repository } from '../models/Repository';
 
-/** Settings a repository may be created or updated with; every field optional. */
-export interface RepositoryInput {
-  name?: string;
-  description?: string;
-  threshold?: number;
-  minTokens?: number;
-  shingleSize?: number;
-  ignore?: string[];
-  cloneBudget?: number | null;
-}
-
 /**
- * Checks settings the database cannot check itself: the threshold must be at or above the lowest
- * threshold the prefix index serves, or matches below it would be missed.
+ * Creates a repository in an organisation. Names are unique per organisation: the database's
+ * constraint decides (a check before the insert could race), and the route answers its
+ * violation with 409 (see fromDatabaseError).
  */
-export function checkRepositorySettings(input: RepositoryInput): void {
-  if (input.threshold !== undefined) {
-    const value = thresholdValue(parseThreshold(input.threshold));
-    if (value < INDEX_MIN_THRESHOLD) {
-      throw new ValidationError(`threshold must be at least ${INDEX_MIN_THRESHOLD} (the index is built for it), got ${input.threshold}`, 'threshold');
-    }
-  }
-}
-
-/** Creates a repository in an organisation; names are unique per organisation. */
 export async function createRepository(
   organisationId: string,
-  input: RepositoryInput & { name: string },
+  input: CreateRepositoryInput,
   transaction?: Transaction,
 ): Promise<Repository> {
-  checkRepositorySettings(input);
-  const taken = await Repository.findOne({ where: { organisationId, name: input.name }, transaction });
-  if (taken) throw new ConflictError(`A repository named "${input.name}" already exists.`, 'name');
+  if (input.threshold !== undefined) servedThreshold(input.threshold);
   return Repository.create(
     {
       organisationId,
@@ -52,13 +30,9 @@ export async function createRepository(
   );
 }
 
-/** Updates a repository's settings (the next snapshot is analysed and matched with them). */
-export async function updateRepository(repository: Repository, input: RepositoryInput, transaction?: Transaction): Promise<Repository> {
-  checkRepositorySettings(input);
-  if (input.name !== undefined && input.name !== repository.name) {
-    const taken = await Repository.findOne({ where: { organisationId: repository.organisationId, name: input.name }, transaction });
-    if (taken) throw new ConflictError(`A repository named "${input.name}" already exists.`, 'name');
-  }
+/** Updates a repository's settings (the next snapshot is analyzed and matched with them). */
+export async function updateRepository(repository: Repository, input: UpdateRepositoryInput, transaction?: Transaction): Promise<Repository> {
+  if (input.threshold !== undefined) servedThreshold(input.threshold);
   const { threshold, cloneBudget, ...rest } = input;
   repository.set({
     ...rest,

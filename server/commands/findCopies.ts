@@ -1,9 +1,10 @@
 import { analyzeSnippetInPool } from '../../analyzers';
-import { INDEX_MIN_THRESHOLD } from '../../shared/constants';
+import type { FindCopiesInput } from '../../shared/api/find-copies';
+import { DEFAULT_REPOSITORY_SETTINGS } from '../../shared/constants';
 import { findSimilarSets, locateSets, type CopyLocation } from '../clone-index/find-copies';
-import { select } from '../clone-index/sql';
+import { servedThreshold } from '../clone-index/options';
 import { HttpError, ValidationError } from '../errors';
-import { parseThreshold, thresholdValue } from '../matching/threshold';
+import { repositoriesByShingleSize } from '../queries/repositories';
 
 /** One copy found: where it stands and how similar it is to the snippet's fragment. */
 export interface FoundCopy extends CopyLocation {
@@ -12,36 +13,19 @@ export interface FoundCopy extends CopyLocation {
   similarity: number;
 }
 
-/** What find copies searches with. */
-export interface FindCopiesInput {
-  organisationId: string;
-  language: string;
-  text: string;
-  /** default 0.8; at least the index threshold */
-  threshold?: number;
-}
-
 /**
  * Every fragment in the latest snapshot of each repository of the organisation whose similarity
- * to the pasted snippet reaches the threshold. The snippet is analysed with each shingle size the
- * organisation's repositories use, and compared only with repositories that use the same size.
- * The snippet text is never stored or logged. It is analysed in the analyzers' worker pool under
- * the analysis bounds: a snippet over one is refused with 422 naming it, and `signal` (the client
- * going away) stops the analysis and rejects with the signal's reason.
+ * to the pasted snippet reaches the threshold (default: the repositories' default, at least the
+ * index threshold). The snippet is analyzed with each shingle size the organisation's
+ * repositories use, and compared only with repositories that use the same size. The snippet text
+ * is never stored or logged. It is analyzed in the analyzers' worker pool under the analysis
+ * bounds: a snippet over one is refused with 422 naming it, and `signal` (the client going away)
+ * stops the analysis and rejects with the signal's reason.
  */
-export async function findCopies(input: FindCopiesInput, options: { signal?: AbortSignal } = {}): Promise<FoundCopy[]> {
-  const t = parseThreshold(input.threshold ?? 0.8);
-  if (thresholdValue(t) < INDEX_MIN_THRESHOLD) {
-    throw new ValidationError(`threshold must be at least ${INDEX_MIN_THRESHOLD}`, 'threshold');
-  }
-  const sizes = await select<{ shingleSize: number; repositoryIds: number[] }>(
-    undefined,
-    `select shingle_size as "shingleSize", array_agg(id) as "repositoryIds" from repositories
-      where organisation_id = $1 group by shingle_size`,
-    [input.organisationId],
-  );
+export async function findCopies(input: FindCopiesInput & { organisationId: string }, options: { signal?: AbortSignal } = {}): Promise<FoundCopy[]> {
+  const t = servedThreshold(input.threshold ?? DEFAULT_REPOSITORY_SETTINGS.threshold);
   const found: FoundCopy[] = [];
-  for (const { shingleSize, repositoryIds } of sizes) {
+  for (const { shingleSize, repositoryIds } of await repositoriesByShingleSize(input.organisationId)) {
     const outcome = await analyzeSnippetInPool(input.language, input.text, { shingleSize, minTokens: 1, signal: options.signal });
     if (!outcome.ok) {
       if (outcome.refusal === 'invalid') throw new ValidationError(outcome.message, 'text');

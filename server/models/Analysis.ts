@@ -1,6 +1,9 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-/** One analysis of one file content under one set of analyzer options (its fragments hang off it). */
+/**
+ * One analysis of one file content under one set of analyzer options (its fragments hang off it).
+ * Not queried through Sequelize: loads write and read it in batches (queries/files.ts); the model types the table and its fragments association.
+ */
 export class Analysis extends Model<InferAttributes<Analysis>, InferCreationAttributes<Analysis>> {
   declare id: CreationOptional<number>;
   declare contentHash: string;
@@ -9,7 +12,6 @@ export class Analysis extends Model<InferAttributes<Analysis>, InferCreationAttr
   declare error: CreationOptional<string | null>;
 }
 
-/** Binds the model to a Sequelize instance (table `analyses`). */
 export function initAnalysis(sequelize: Sequelize) {
   Analysis.init(
     {

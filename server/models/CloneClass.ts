@@ -1,6 +1,9 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-/** A clone class of one snapshot, with its size, similarity range, type and status against the previous snapshot. */
+/**
+ * A clone class of one snapshot, with its size, similarity range, type and status against the previous snapshot.
+ * Not queried through Sequelize: lists filter, sort and page it in SQL (queries/classes.ts); the model types the table and its associations.
+ */
 export class CloneClass extends Model<InferAttributes<CloneClass>, InferCreationAttributes<CloneClass>> {
   declare id: CreationOptional<number>;
   declare snapshotId: number;
@@ -15,7 +18,6 @@ export class CloneClass extends Model<InferAttributes<CloneClass>, InferCreation
   declare previousClassId: CreationOptional<number | null>;
 }
 
-/** Binds the model to a Sequelize instance (table `clone_classes`). */
 export function initCloneClass(sequelize: Sequelize) {
   CloneClass.init(
     {

@@ -1,6 +1,9 @@
 import { DataTypes, Model, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-/** A fragment of a snapshot file that belongs to a clone class, and whether it changed since the previous snapshot. */
+/**
+ * A fragment of a snapshot file that belongs to a clone class, and whether it changed since the previous snapshot.
+ * Not queried through Sequelize: written in one unnest batch per snapshot (queries/write-classes.ts); the model types the table.
+ */
 export class CloneClassMember extends Model<InferAttributes<CloneClassMember>, InferCreationAttributes<CloneClassMember>> {
   declare classId: number;
   declare snapshotFileId: number;
@@ -8,7 +11,6 @@ export class CloneClassMember extends Model<InferAttributes<CloneClassMember>, I
   declare codeChanged: boolean;
 }
 
-/** Binds the model to a Sequelize instance (table `clone_class_members`). */
 export function initCloneClassMember(sequelize: Sequelize) {
   CloneClassMember.init(
     {

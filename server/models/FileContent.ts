@@ -1,13 +1,15 @@
 import { DataTypes, Model, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-/** The text of a file, stored once per sha-256 of its bytes, whichever snapshots hold it. */
+/**
+ * The text of a file, stored once per sha-256 of its bytes, whichever snapshots hold it.
+ * Not queried through Sequelize: loads write it in unnest batches (queries/files.ts); the model keeps the table's columns typed beside the others.
+ */
 export class FileContent extends Model<InferAttributes<FileContent>, InferCreationAttributes<FileContent>> {
   declare hash: string;
   declare text: string;
   declare byteSize: number;
 }
 
-/** Binds the model to a Sequelize instance (table `file_contents`). */
 export function initFileContent(sequelize: Sequelize) {
   FileContent.init(
     {

@@ -1,6 +1,9 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-/** One function-level unit found by an analysis, with its identities and its shingle set. */
+/**
+ * One function-level unit found by an analysis, with its identities and its shingle set.
+ * Not queried through Sequelize: loads write it in unnest batches and reads join it with files and sets in SQL; the model types the table.
+ */
 export class Fragment extends Model<InferAttributes<Fragment>, InferCreationAttributes<Fragment>> {
   declare id: CreationOptional<number>;
   declare analysisId: number;
@@ -19,7 +22,6 @@ export class Fragment extends Model<InferAttributes<Fragment>, InferCreationAttr
   declare setId: number;
 }
 
-/** Binds the model to a Sequelize instance (table `fragments`). */
 export function initFragment(sequelize: Sequelize) {
   Fragment.init(
     {

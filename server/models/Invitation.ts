@@ -35,7 +35,6 @@ export class Invitation extends Model<InferAttributes<Invitation>, InferCreation
   }
 }
 
-/** Binds the model to a Sequelize instance (table `invitations`). */
 export function initInvitation(sequelize: Sequelize) {
   Invitation.init(
     {

@@ -15,7 +15,6 @@ export class Organisation extends Model<InferAttributes<Organisation>, InferCrea
   declare updatedAt: CreationOptional<Date>;
 }
 
-/** Binds the model to a Sequelize instance (table `organisations`). */
 export function initOrganisation(sequelize: Sequelize) {
   Organisation.init(
     {

@@ -1,6 +1,9 @@
 import { DataTypes, Model, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-/** One rank of a stored set's probing prefix: what a probe looks up (rank, then size range). */
+/**
+ * One rank of a stored set's probing prefix: what a probe looks up (rank, then size range).
+ * Not queried through Sequelize: the index writes and probes it in batch SQL (clone-index/sets.ts, probe.ts); the model types the table.
+ */
 export class PrefixEntry extends Model<InferAttributes<PrefixEntry>, InferCreationAttributes<PrefixEntry>> {
   declare rank: number;
   declare setId: number;
@@ -8,7 +11,6 @@ export class PrefixEntry extends Model<InferAttributes<PrefixEntry>, InferCreati
   declare size: number;
 }
 
-/** Binds the model to a Sequelize instance (table `prefix_entries`). */
 export function initPrefixEntry(sequelize: Sequelize) {
   PrefixEntry.init(
     {

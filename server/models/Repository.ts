@@ -1,4 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import { DEFAULT_REPOSITORY_SETTINGS as DEFAULTS } from '../../shared/constants';
 
 /** A tracked codebase and its analysis settings (threshold, minimum tokens, shingle size, ignore list, clone budget). */
 export class Repository extends Model<InferAttributes<Repository>, InferCreationAttributes<Repository>> {
@@ -15,7 +16,6 @@ export class Repository extends Model<InferAttributes<Repository>, InferCreation
   declare updatedAt: CreationOptional<Date>;
 }
 
-/** Binds the model to a Sequelize instance (table `repositories`). */
 export function initRepository(sequelize: Sequelize) {
   Repository.init(
     {
@@ -23,9 +23,9 @@ export function initRepository(sequelize: Sequelize) {
       organisationId: { type: DataTypes.UUID, allowNull: false },
       name: { type: DataTypes.TEXT, allowNull: false },
       description: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
-      threshold: { type: DataTypes.DECIMAL(7, 6), allowNull: false, defaultValue: '0.8' },
-      minTokens: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 50 },
-      shingleSize: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 3 },
+      threshold: { type: DataTypes.DECIMAL(7, 6), allowNull: false, defaultValue: String(DEFAULTS.threshold) },
+      minTokens: { type: DataTypes.INTEGER, allowNull: false, defaultValue: DEFAULTS.minTokens },
+      shingleSize: { type: DataTypes.INTEGER, allowNull: false, defaultValue: DEFAULTS.shingleSize },
       ignore: { type: DataTypes.ARRAY(DataTypes.TEXT), allowNull: false, defaultValue: [] },
       cloneBudget: { type: DataTypes.DECIMAL(7, 6), allowNull: true, defaultValue: null },
       createdAt: DataTypes.DATE,

@@ -1,6 +1,9 @@
 import { DataTypes, Model, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-/** Two stored sets whose similarity reaches the index threshold, with their exact overlap (setA < setB). */
+/**
+ * Two stored sets whose similarity reaches the index threshold, with their exact overlap (setA < setB).
+ * Not queried through Sequelize: the index writes it and snapshot-pairs.ts reads it in batch SQL; the model types the table.
+ */
 export class SetPair extends Model<InferAttributes<SetPair>, InferCreationAttributes<SetPair>> {
   declare setA: number;
   declare setB: number;
@@ -8,7 +11,6 @@ export class SetPair extends Model<InferAttributes<SetPair>, InferCreationAttrib
   declare similarity: number;
 }
 
-/** Binds the model to a Sequelize instance (table `set_pairs`). */
 export function initSetPair(sequelize: Sequelize) {
   SetPair.init(
     {

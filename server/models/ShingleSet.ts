@@ -1,6 +1,9 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-/** A shingle set, stored once per hash of its sorted shingles, as ascending ranks. */
+/**
+ * A shingle set, stored once per hash of its sorted shingles, as ascending ranks.
+ * Not queried through Sequelize: the index reads and writes it in batch SQL (clone-index/sets.ts, probe.ts); the model types the table.
+ */
 export class ShingleSet extends Model<InferAttributes<ShingleSet>, InferCreationAttributes<ShingleSet>> {
   declare id: CreationOptional<number>;
   declare hash: string;
@@ -8,7 +11,6 @@ export class ShingleSet extends Model<InferAttributes<ShingleSet>, InferCreation
   declare ranks: number[];
 }
 
-/** Binds the model to a Sequelize instance (table `shingle_sets`). */
 export function initShingleSet(sequelize: Sequelize) {
   ShingleSet.init(
     {

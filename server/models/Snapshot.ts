@@ -1,4 +1,13 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
+import type { SnapshotStatus } from '../../shared/api/snapshots';
+
+/** The repository's settings a snapshot was loaded with, kept with it (later changes do not rewrite it). */
+export interface SnapshotSettings {
+  threshold: number;
+  minTokens: number;
+  shingleSize: number;
+  ignore: string[];
+}
 
 /** One analysed state of a repository with its release label, counts, timings and clone ratio. */
 export class Snapshot extends Model<InferAttributes<Snapshot>, InferCreationAttributes<Snapshot>> {
@@ -7,9 +16,9 @@ export class Snapshot extends Model<InferAttributes<Snapshot>, InferCreationAttr
   declare label: string;
   declare source: CreationOptional<string>;
   declare commitSha: CreationOptional<string | null>;
-  declare status: CreationOptional<'pending' | 'running' | 'ready' | 'failed'>;
+  declare status: CreationOptional<SnapshotStatus>;
   declare error: CreationOptional<string | null>;
-  declare settings: CreationOptional<Record<string, unknown>>;
+  declare settings: CreationOptional<SnapshotSettings>;
   declare fileCount: CreationOptional<number>;
   declare skippedCount: CreationOptional<number>;
   declare failedCount: CreationOptional<number>;
@@ -22,7 +31,6 @@ export class Snapshot extends Model<InferAttributes<Snapshot>, InferCreationAttr
   declare updatedAt: CreationOptional<Date>;
 }
 
-/** Binds the model to a Sequelize instance (table `snapshots`). */
 export function initSnapshot(sequelize: Sequelize) {
   Snapshot.init(
     {

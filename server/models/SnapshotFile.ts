@@ -1,6 +1,9 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-/** A file of a snapshot: its path, its content, and its analysis, or why it was skipped or failed. */
+/**
+ * A file of a snapshot: its path, its content, and its analysis, or why it was skipped or failed.
+ * Not queried through Sequelize: loads write it in unnest batches (queries/files.ts); the model types the table and Snapshot's files association.
+ */
 export class SnapshotFile extends Model<InferAttributes<SnapshotFile>, InferCreationAttributes<SnapshotFile>> {
   declare id: CreationOptional<number>;
   declare snapshotId: number;
@@ -12,7 +15,6 @@ export class SnapshotFile extends Model<InferAttributes<SnapshotFile>, InferCrea
   declare error: CreationOptional<string | null>;
 }
 
-/** Binds the model to a Sequelize instance (table `snapshot_files`). */
 export function initSnapshotFile(sequelize: Sequelize) {
   SnapshotFile.init(
     {

@@ -17,7 +17,6 @@ export class SnapshotMetric extends Model<InferAttributes<SnapshotMetric>, Infer
   declare goneClassCount: number;
 }
 
-/** Binds the model to a Sequelize instance (table `snapshot_metrics`). */
 export function initSnapshotMetric(sequelize: Sequelize) {
   SnapshotMetric.init(
     {

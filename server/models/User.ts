@@ -32,7 +32,6 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   }
 }
 
-/** Binds the model to a Sequelize instance (table `users`). */
 export function initUser(sequelize: Sequelize) {
   User.init(
     {

@@ -1,12 +1,17 @@
 import type { LatestSnapshotDTO, RepositoryDTO, TrendPointDTO } from '../../shared/api/repositories';
 import type { Repository } from '../models/Repository';
+import type { LatestSnapshot, TrendRow } from '../queries/repositories';
+import { exceedsBudget, parseBudget } from '../reports/budget';
 
-/** The latest ready snapshot of a repository as a row of the list needs it. */
-export interface LatestSnapshot {
-  id: number;
-  label: string;
-  cloneRatio: number | null;
-  createdAt: Date;
+/**
+ * Whether the latest snapshot is over the repository's budget: the exact verdict `doublet scan
+ * --budget` gives (token counts against the stored decimal, in integers), never the rounded ratio.
+ */
+function isOverBudget(cloneBudget: string | null, latest: LatestSnapshot | null): boolean {
+  if (cloneBudget === null || latest?.clonedTokens == null || latest.fragmentTokens == null) return false;
+  // numeric(7,6) arrives as "0.400000"; a value set in this request may still be a longer number
+  // string, so it is put in the form the column stores first
+  return exceedsBudget({ clonedTokens: latest.clonedTokens, fragmentTokens: latest.fragmentTokens }, parseBudget(Number(cloneBudget).toFixed(6)));
 }
 
 /** A repository with its settings and where its latest snapshot stands against the budget. */
@@ -29,12 +34,12 @@ export function presentRepository(repository: Repository, latest: LatestSnapshot
     cloneBudget,
     createdAt: repository.createdAt.toISOString(),
     latestSnapshot,
-    overBudget: cloneBudget !== null && latest?.cloneRatio != null && latest.cloneRatio > cloneBudget,
+    overBudget: isOverBudget(repository.cloneBudget, latest),
   };
 }
 
 /** One trend point from a metrics row joined with its snapshot. */
-export function presentTrendPoint(row: Omit<TrendPointDTO, 'createdAt'> & { createdAt: Date }): TrendPointDTO {
+export function presentTrendPoint(row: TrendRow): TrendPointDTO {
   return {
     snapshotId: row.snapshotId,
     label: row.label,

@@ -1,6 +1,6 @@
-import type { CloneClassDetailDTO, CloneClassSummaryDTO, GoneClassDTO, SnapshotDTO, SnapshotMetricsDTO } from '../../shared/api/snapshots';
-import type { ClassRow, MemberRow } from '../clone-index/snapshot-classes';
-import type { InstancePair } from '../clone-index/snapshot-pairs';
+import { CLASS_STATUSES, type CloneClassDetailDTO, type CloneClassSummaryDTO, type GoneClassDTO, type SnapshotComparisonDTO, type SnapshotDTO, type SnapshotMetricsDTO } from '../../shared/api/snapshots';
+import type { FragmentPair } from '../clone-index/snapshot-pairs';
+import type { ClassRow, MemberRow } from '../queries/classes';
 import type { Snapshot } from '../models/Snapshot';
 import type { SnapshotMetric } from '../models/SnapshotMetric';
 
@@ -66,7 +66,7 @@ export function presentGoneClass(row: ClassRow): GoneClassDTO {
 export function presentCloneClassDetail(
   row: ClassRow & { repositoryId: number; snapshotLabel: string },
   members: MemberRow[],
-  pairs: InstancePair[],
+  pairs: FragmentPair[],
 ): CloneClassDetailDTO {
   return {
     ...presentCloneClass(row),
@@ -85,4 +85,17 @@ export function presentCloneClassDetail(
     })),
     pairs: pairs.map((p) => ({ a: p.a, b: p.b, similarity: p.similarity, type: p.type })),
   };
+}
+
+/** A snapshot's comparison with the previous ready one: its classes, the gone ones, and a count of each status. */
+export function presentComparison(
+  snapshotId: number,
+  previous: { id: number; label: string } | undefined,
+  classes: ClassRow[],
+  gone: ClassRow[],
+): SnapshotComparisonDTO {
+  const counts = Object.fromEntries([...CLASS_STATUSES, 'gone'].map((status) => [status, 0])) as SnapshotComparisonDTO['counts'];
+  for (const c of classes) counts[c.status]++;
+  counts.gone = gone.length;
+  return { snapshotId, previous: previous ? { id: previous.id, label: previous.label } : null, counts, classes: classes.map(presentCloneClass), gone: gone.map(presentGoneClass) };
 }

@@ -1,11 +1,10 @@
 import { idParamsSchema } from '../../shared/api/snapshots';
 import { currentUser } from '../auth/current-user';
-import { classMembers, findClass } from '../clone-index/snapshot-classes';
-import { NotFoundError } from '../errors';
+import { found } from '../errors';
 import { authorize } from '../policies';
 import { presentCloneClassDetail } from '../presenters/snapshot';
+import { classMembers, findClass } from '../queries/classes';
 import { defineRoutes } from './define';
-import { loadRepository } from './repositories';
 import { parse } from './validate';
 
 /** /api/clone-classes: one class with its members' code, for the side-by-side view. */
@@ -16,12 +15,8 @@ export const cloneClassRoutes = defineRoutes('/clone-classes', [
     guard: 'cloneClasses.read',
     handler: async (req, res) => {
       const { id } = parse(idParamsSchema, req.params);
-      const row = await findClass(id);
-      if (!row) throw new NotFoundError('Clone class');
-      const repository = await loadRepository(currentUser(req), row.repositoryId).catch(() => {
-        throw new NotFoundError('Clone class');
-      });
-      authorize(currentUser(req), 'cloneClasses.read', repository);
+      const row = found(await findClass(currentUser(req).organisationId, id), 'Clone class');
+      authorize(currentUser(req), 'cloneClasses.read', row);
       const { members, pairs } = await classMembers(id, row.threshold);
       res.json(presentCloneClassDetail(row, members, pairs));
     },

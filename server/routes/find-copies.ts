@@ -1,4 +1,5 @@
 import { findCopiesSchema, type FindCopiesResultDTO } from '../../shared/api/find-copies';
+import { DEFAULT_REPOSITORY_SETTINGS } from '../../shared/constants';
 import { currentUser } from '../auth/current-user';
 import { findCopies } from '../commands/findCopies';
 import { authorize } from '../policies';
@@ -16,14 +17,11 @@ export const findCopiesRoutes = defineRoutes('/find-copies', [
       const input = parse(findCopiesSchema, req.body);
       const actor = currentUser(req);
       authorize(actor, 'findCopies.use', { organisationId: actor.organisationId });
-      const threshold = input.threshold ?? 0.8;
+      const threshold = input.threshold ?? DEFAULT_REPOSITORY_SETTINGS.threshold;
       // The analysis stops when the client goes away; there is no one left to answer then.
       const gone = new AbortController();
       res.on('close', () => gone.abort());
-      const copies = await findCopies(
-        { organisationId: actor.organisationId, language: input.language, text: input.text, threshold },
-        { signal: gone.signal },
-      ).catch((error: unknown) => {
+      const copies = await findCopies({ ...input, threshold, organisationId: actor.organisationId }, { signal: gone.signal }).catch((error: unknown) => {
         if (gone.signal.aborted) return undefined;
         throw error;
       });

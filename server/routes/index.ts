@@ -2,7 +2,7 @@ import express, { type RequestHandler } from 'express';
 import { optionalUser } from '../auth/current-user';
 import { csrfProtection } from '../auth/csrf';
 import { signInRateLimit } from '../auth/rate-limit';
-import { AuthenticationError, HttpError } from '../errors';
+import { AuthenticationError, fromDatabaseError, HttpError } from '../errors';
 import { declaredRoutes, guardMiddleware, type DeclaredRoute, type NamedMiddleware, type RouteGroup } from './define';
 import { healthRoutes } from './health';
 import { invitationRoutes } from './invitations';
@@ -54,7 +54,7 @@ export function buildApiRouter(options: ApiRouterOptions = {}): express.Router {
         try {
           await route.handler(req, res);
         } catch (error) {
-          next(error);
+          next(fromDatabaseError(error));
         }
       };
       router[route.method](path, ...(route.use ?? []).map((name) => named[name]), guardMiddleware(route.guard), csrf, handler);

@@ -1,4 +1,3 @@
-import { Op } from 'sequelize';
 import {
   acceptInvitationSchema,
   invitationParamsSchema,
@@ -9,12 +8,12 @@ import {
 import { currentUser } from '../auth/current-user';
 import { acceptInvitation, findUsableInvitation } from '../commands/acceptInvitation';
 import { inviteUser } from '../commands/inviteUser';
-import { NotFoundError } from '../errors';
-import { Invitation } from '../models/Invitation';
-import { Organisation } from '../models/Organisation';
+import { revokeInvitation } from '../commands/revokeInvitation';
+import { found } from '../errors';
 import { authorize } from '../policies';
 import { presentInvitation, presentInvitationPreview } from '../presenters/invitation';
 import { presentUser } from '../presenters/user';
+import { findInvitation, findOrganisation, listPendingInvitations } from '../queries/people';
 import { defineRoutes } from './define';
 import { parse } from './validate';
 
@@ -29,11 +28,7 @@ export const invitationRoutes = defineRoutes('/invitations', [
     guard: 'users.manage',
     handler: async (req, res) => {
       const actor = currentUser(req);
-      const invitations = await Invitation.findAll({
-        where: { organisationId: actor.organisationId, acceptedAt: null, expiresAt: { [Op.gt]: new Date() } },
-        include: [{ association: 'invitedBy' }],
-        order: [['createdAt', 'DESC']],
-      });
+      const invitations = await listPendingInvitations(actor.organisationId);
       const answer: InvitationListDTO = { invitations: invitations.map(presentInvitation) };
       res.json(answer);
     },
@@ -57,11 +52,9 @@ export const invitationRoutes = defineRoutes('/invitations', [
     handler: async (req, res) => {
       const { id } = parse(invitationParamsSchema, req.params);
       const actor = currentUser(req);
-      const invitation = await Invitation.findOne({ where: { id, organisationId: actor.organisationId } });
-      if (!invitation) throw new NotFoundError('Invitation');
+      const invitation = found(await findInvitation(actor.organisationId, id), 'Invitation');
       authorize(actor, 'users.manage', invitation);
-      // Revoking is expiring now: the link stops working and the row stays as a record.
-      if (invitation.isUsable()) await invitation.update({ expiresAt: new Date() });
+      await revokeInvitation(invitation);
       res.status(204).end();
     },
   },
@@ -72,7 +65,7 @@ export const invitationRoutes = defineRoutes('/invitations', [
     handler: async (req, res) => {
       const { token } = parse(invitationTokenParamsSchema, req.params);
       const invitation = await findUsableInvitation(token);
-      const organisation = await Organisation.findByPk(invitation.organisationId, { rejectOnEmpty: true });
+      const organisation = found(await findOrganisation(invitation.organisationId), 'Organisation');
       res.json(presentInvitationPreview(invitation, organisation));
     },
   },

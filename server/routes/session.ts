@@ -5,9 +5,9 @@ import { currentUser, optionalUser } from '../auth/current-user';
 import { authenticateLocal } from '../auth/passport';
 import { changePassword } from '../commands/changePassword';
 import { AuthenticationError } from '../errors';
-import { Organisation } from '../models/Organisation';
 import type { User } from '../models/User';
 import { presentSession } from '../presenters/session';
+import { findOrganisation } from '../queries/people';
 import { defineRoutes } from './define';
 import { parse } from './validate';
 
@@ -22,7 +22,7 @@ function logOut(req: Request): Promise<void> {
 
 async function sessionOf(req: Request) {
   const user = optionalUser(req);
-  const organisation = user ? await Organisation.findByPk(user.organisationId) : null;
+  const organisation = user ? await findOrganisation(user.organisationId) : null;
   return presentSession(user, organisation, csrfTokenOf(req));
 }
 

@@ -1,6 +1,6 @@
 /** API types and schemas of POST /api/find-copies: every indexed copy of a pasted snippet. */
 import { z } from 'zod';
-import { INDEX_MIN_THRESHOLD } from '../constants';
+import { thresholdSchema } from './threshold';
 
 /** Languages a snippet may be in (the analyzers' language ids). */
 export const SNIPPET_LANGUAGES = ['javascript', 'typescript', 'python', 'java', 'go', 'csharp', 'c', 'cpp'] as const;
@@ -9,7 +9,7 @@ export const SNIPPET_LANGUAGES = ['javascript', 'typescript', 'python', 'java', 
 export const findCopiesSchema = z.object({
   language: z.enum(SNIPPET_LANGUAGES, { error: `The language is one of ${SNIPPET_LANGUAGES.join(', ')}.` }),
   text: z.string({ error: 'Paste some code.' }).min(1, 'Paste some code.').max(200_000, 'A snippet has at most 200000 characters.'),
-  threshold: z.number().min(INDEX_MIN_THRESHOLD, `The threshold is at least ${INDEX_MIN_THRESHOLD}.`).max(1, 'The threshold is at most 1.').optional(),
+  threshold: thresholdSchema.optional(),
 });
 /** Input of find copies. */
 export type FindCopiesInput = z.infer<typeof findCopiesSchema>;

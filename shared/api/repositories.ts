@@ -3,18 +3,14 @@
  * their clone ratio over releases.
  */
 import { z } from 'zod';
-import { INDEX_MIN_THRESHOLD } from '../constants';
+import { thresholdSchema } from './threshold';
 
 /** Path parameters of /api/repositories/:id. */
 export const repositoryParamsSchema = z.object({ id: z.coerce.number().int().positive({ error: 'Not a repository id.' }) });
 
 const settingsShape = {
   description: z.string().trim().max(500, 'A description has at most 500 characters.'),
-  threshold: z
-    .number({ error: 'The threshold is a number.' })
-    .min(INDEX_MIN_THRESHOLD, `The threshold is at least ${INDEX_MIN_THRESHOLD}.`)
-    .max(1, 'The threshold is at most 1.')
-    .refine((v) => Number.isInteger(Math.round(v * 1e6)) && Math.abs(v * 1e6 - Math.round(v * 1e6)) < 1e-6, 'At most six decimals.'),
+  threshold: thresholdSchema,
   minTokens: z.number().int('Whole tokens only.').min(5, 'At least 5 tokens.').max(10_000, 'At most 10000 tokens.'),
   shingleSize: z.number().int('A whole number.').min(1, 'At least 1.').max(10, 'At most 10.'),
   ignore: z.array(z.string().max(300, 'An ignore line has at most 300 characters.')).max(500, 'At most 500 ignore lines.'),

@@ -27,6 +27,11 @@ export const classListQuerySchema = z.object({
 /** Parsed class list query. */
 export type ClassListQuery = z.infer<typeof classListQuerySchema>;
 
+/** Where a snapshot's load stands: queued, running, done, or failed with its reason. */
+export const SNAPSHOT_STATUSES = ['pending', 'running', 'ready', 'failed'] as const;
+/** A snapshot status. */
+export type SnapshotStatus = (typeof SNAPSHOT_STATUSES)[number];
+
 /** A snapshot's figures (absent until the load has finished). */
 export interface SnapshotMetricsDTO {
   fragmentTokens: number;
@@ -50,7 +55,7 @@ export interface SnapshotDTO {
   label: string;
   source: string;
   commitSha: string | null;
-  status: 'pending' | 'running' | 'ready' | 'failed';
+  status: SnapshotStatus;
   error: string | null;
   fileCount: number;
   skippedCount: number;

@@ -1,8 +1,9 @@
 import path from 'node:path';
 import crypto from 'node:crypto';
-import { repositorySettings, createRepository, type RepositoryInput } from '../../server/commands/createRepository';
+import type { UpdateRepositoryInput } from '../../shared/api/repositories';
+import { repositorySettings, createRepository } from '../../server/commands/createRepository';
 import { loadSnapshot } from '../../server/commands/loadSnapshot';
-import { snapshotInstances, clonePairsWithin } from '../../server/clone-index/snapshot-pairs';
+import { snapshotFragments, clonePairsWithin } from '../../server/clone-index/snapshot-pairs';
 import { readFolder } from '../../server/ingest/folder';
 import { parseThreshold } from '../../server/matching/threshold';
 import type { Repository } from '../../server/models/Repository';
@@ -12,7 +13,7 @@ import { buildOrganisation } from './factories';
 export const RELEASES = path.resolve(import.meta.dirname, '../../server/demo/freight-platform');
 
 /** A repository in a new organisation (or the one given), with a unique name. */
-export async function buildRepository(input: RepositoryInput & { organisationId?: string } = {}): Promise<Repository> {
+export async function buildRepository(input: UpdateRepositoryInput & { organisationId?: string } = {}): Promise<Repository> {
   const organisationId = input.organisationId ?? (await buildOrganisation()).id;
   return createRepository(organisationId, { ...input, name: input.name ?? `repo-${crypto.randomBytes(4).toString('hex')}` });
 }
@@ -28,9 +29,9 @@ export async function loadFolder(repository: Repository, folder: string, label: 
  * form that does not depend on ids, so loads in different repositories can be compared.
  */
 export async function describedPairs(snapshotId: number, threshold: string | number): Promise<string[]> {
-  const instances = await snapshotInstances(undefined, snapshotId);
-  const pairs = await clonePairsWithin(undefined, instances, parseThreshold(threshold));
-  const name = (i: number) => `${instances[i].path}:${instances[i].name}:${instances[i].startLine}`;
+  const fragments = await snapshotFragments(undefined, snapshotId);
+  const pairs = await clonePairsWithin(undefined, fragments, parseThreshold(threshold));
+  const name = (i: number) => `${fragments[i].path}:${fragments[i].name}:${fragments[i].startLine}`;
   return pairs
     .map((p) => [name(p.a), name(p.b)].sort().join(' ~ ') + ` ${p.similarity.toFixed(6)} ${p.type}`)
     .sort();

@@ -1,7 +1,8 @@
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { scanReportSchema, type ScanReport } from '../../../shared/api/scan-report';
-import { run as classes, snapshotReport } from '../../../server/cli/classes';
+import { cloneReportSchema, type CloneReport } from '../../../shared/api/clone-report';
+import { run as classes } from '../../../server/cli/classes';
+import { snapshotReport } from '../../../server/reports/snapshot';
 import { run as scan } from '../../../server/cli/scan';
 import { Snapshot } from '../../../server/models';
 import { buildRepository, loadFolder, RELEASES, useDatabase } from '../../support';
@@ -10,7 +11,7 @@ import { captureIo } from './io';
 useDatabase();
 
 /** A report's pairs in a form that does not depend on fragment ids. */
-function describe_(report: ScanReport): string[] {
+function describe_(report: CloneReport): string[] {
   const byId = new Map(report.fragments.map((f) => [f.id, f]));
   const name = (id: number) => {
     const f = byId.get(id)!;
@@ -19,16 +20,16 @@ function describe_(report: ScanReport): string[] {
   return report.pairs.map((p) => `${[name(p.a), name(p.b)].sort().join(' ~ ')} ${p.similarity.toFixed(9)} ${p.type}`).sort();
 }
 
-async function scanReport(folder: string, options: string[] = []): Promise<ScanReport> {
+async function scanReport(folder: string, options: string[] = []): Promise<CloneReport> {
   const io = captureIo();
   expect(await scan([folder, '--format', 'json', ...options], io)).toBe(0);
-  return scanReportSchema.parse(JSON.parse(io.stdout()));
+  return cloneReportSchema.parse(JSON.parse(io.stdout()));
 }
 
 async function databaseReport(folder: string, threshold: number, cross = false) {
   const repository = await buildRepository({ threshold });
   const loaded = await loadFolder(repository, folder, 'r1');
-  return { repository, report: scanReportSchema.parse(await snapshotReport(repository, (await Snapshot.findByPk(loaded.snapshotId))!, cross)) };
+  return { repository, report: cloneReportSchema.parse(await snapshotReport(repository, (await Snapshot.findByPk(loaded.snapshotId))!, cross)) };
 }
 
 describe('doublet classes', () => {
@@ -57,7 +58,7 @@ describe('doublet classes', () => {
     const loaded = await loadFolder(second, path.join(RELEASES, 'v2'), 'v2');
     const snapshot = (await Snapshot.findByPk(loaded.snapshotId))!;
     const own = await snapshotReport(second, snapshot, false);
-    const withCross = scanReportSchema.parse(await snapshotReport(second, snapshot, true));
+    const withCross = cloneReportSchema.parse(await snapshotReport(second, snapshot, true));
     expect(withCross.stats).toEqual(own.stats);
     const crossPairs = withCross.pairs.slice(own.pairs.length);
     expect(crossPairs.length).toBeGreaterThan(0);

@@ -4,7 +4,7 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { run } from '../../../server/cli/scan';
 import { projectRoot } from '../../../server/config';
-import { scanReportSchema, type ScanReport } from '../../../shared/api/scan-report';
+import { cloneReportSchema, type CloneReport } from '../../../shared/api/clone-report';
 import { captureIo } from './io';
 
 /**
@@ -21,10 +21,10 @@ const PLANTED = [
 ] as const;
 
 let dir: string;
-let report: ScanReport;
+let report: CloneReport;
 let jsonRun: { code: number; stderr: string };
 
-function pairsByName(r: ScanReport) {
+function pairsByName(r: CloneReport) {
   const label = new Map(r.fragments.map((f) => [f.id, `${f.file}:${f.name}`]));
   return r.pairs.map((p) => [label.get(p.a), label.get(p.b), p.type]);
 }
@@ -35,7 +35,7 @@ beforeAll(async () => {
   const out = path.join(dir, 'report.json');
   const code = await run([FIXTURE, '--format', 'json', '--out', out], io);
   jsonRun = { code, stderr: io.stderr() };
-  report = JSON.parse(fs.readFileSync(out, 'utf8')) as ScanReport;
+  report = JSON.parse(fs.readFileSync(out, 'utf8')) as CloneReport;
 });
 afterAll(() => fs.rmSync(dir, { recursive: true, force: true }));
 
@@ -47,7 +47,7 @@ describe('doublet scan', () => {
   });
 
   it('writes JSON that the shared schema accepts, with paths relative to the folder', () => {
-    const parsed = scanReportSchema.safeParse(report);
+    const parsed = cloneReportSchema.safeParse(report);
     expect(parsed.success, JSON.stringify(parsed.error?.issues)).toBe(true);
     expect(report.settings).toMatchObject({ threshold: 0.8, minTokens: 50, shingleSize: 3 });
     for (const fragment of report.fragments) {
@@ -63,7 +63,7 @@ describe('doublet scan', () => {
       report.fragments.some((o) => o !== f && o.file === f.file && o.startLine <= f.startLine && o.endLine >= f.endLine && o.tokens > f.tokens);
     const total = report.fragments.filter((f) => !nested(f)).reduce((sum, f) => sum + f.tokens, 0);
     expect(report.fragments.some(nested)).toBe(true);
-    expect(report.stats).toMatchObject({ clonedTokens: cloned, tokens: total, pairs: 3, classes: 3 });
+    expect(report.stats).toMatchObject({ clonedTokens: cloned, fragmentTokens: total, pairCount: 3, classCount: 3 });
     expect(report.stats.cloneRatio).toBeCloseTo(cloned / total, 12);
     expect(jsonRun.stderr).toMatch(/3 clone pairs, 3 clone classes/);
   });
@@ -119,7 +119,7 @@ describe('doublet scan', () => {
     const io = captureIo();
     const code = await run([path.join(FIXTURE, 'src/billing'), path.join(FIXTURE, 'src/legacy'), '--format', 'json'], io);
     expect(code).toBe(0);
-    const both = scanReportSchema.parse(JSON.parse(io.stdout()));
+    const both = cloneReportSchema.parse(JSON.parse(io.stdout()));
     expect(pairsByName(both)).toEqual([['billing/fees.ts:dockFeeFor', 'legacy/old-fees.ts:dockFeeFor', 1]]);
   });
 
@@ -140,7 +140,7 @@ describe('doublet scan', () => {
     it('finds nothing in a folder without clones', async () => {
       const io = captureIo();
       expect(await run([path.join(FIXTURE, 'tools'), '--format', 'json'], io)).toBe(0);
-      const alone = scanReportSchema.parse(JSON.parse(io.stdout()));
+      const alone = cloneReportSchema.parse(JSON.parse(io.stdout()));
       expect(alone.fragments).toHaveLength(1);
       expect(alone.pairs).toEqual([]);
       expect(alone.stats.cloneRatio).toBe(0);

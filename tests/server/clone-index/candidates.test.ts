@@ -1,8 +1,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { probeHitFilter, probeKeys, probeSizeBounds } from '../../../server/clone-index/candidates';
+import { prefixLengthSql, probeHitFilter, probeKeys, probeSizeBounds } from '../../../server/clone-index/candidates';
 import { select } from '../../../server/clone-index/sql';
-import { minOverlap, parseThreshold, reaches, type Threshold } from '../../../server/matching/threshold';
+import { minOverlap, parseThreshold, prefixLength, reaches, type Threshold } from '../../../server/matching/threshold';
 import { useDatabase } from '../../support';
 
 useDatabase();
@@ -144,5 +144,18 @@ describe('probeHitFilter', () => {
         }
       }
     });
+  });
+});
+
+describe('prefixLengthSql', () => {
+  it('equals prefixLength for every size up to 2000 at the index threshold and others', async () => {
+    for (const text of ['0.6', '0.8', '0.95', '1', '0.612345']) {
+      const t = parseThreshold(text);
+      const rows = await select<{ length: string }>(
+        undefined,
+        `select (${prefixLengthSql(t, 's.size')})::text as length from generate_series(0, 2000) as s(size) order by s.size`,
+      );
+      expect(rows.map((r) => Number(r.length)), text).toEqual(Array.from({ length: 2001 }, (_, size) => prefixLength(t, size)));
+    }
   });
 });

@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { compareClasses, memberKey, occurrences, type MemberIdentity } from '../../../server/clone-index/compare';
+import { compareClasses, fragmentKey, occurrences, type FragmentIdentity } from '../../../server/clone-index/compare';
 
-const m = (path: string, name: string, rawHash: string, occurrence = 0): MemberIdentity => ({ path, name, occurrence, rawHash });
+const m = (path: string, name: string, rawHash: string, occurrence = 0): FragmentIdentity => ({ path, name, occurrence, rawHash });
 
-function fragmentsOf(classes: MemberIdentity[][], extra: MemberIdentity[] = []) {
-  return new Map([...classes.flat(), ...extra].map((x) => [memberKey(x), x.rawHash]));
+function fragmentsOf(classes: FragmentIdentity[][], extra: FragmentIdentity[] = []) {
+  return new Map([...classes.flat(), ...extra].map((x) => [fragmentKey(x), x.rawHash]));
 }
 
 describe('compareClasses', () => {

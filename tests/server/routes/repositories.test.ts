@@ -58,6 +58,22 @@ describe('POST /api/repositories', () => {
     await lead.post('/api/repositories').send({ name: 'dup' }).expect(409);
     await (await signedInAgent(app, team.engineer)).post('/api/repositories').send({ name: 'mine' }).expect(403);
   });
+
+  it('answers 409 on name (not 500) when the unique constraint decides: a taken name, a rename, a race', async () => {
+    const team = await buildTeam();
+    const lead = await signedInAgent(app, team.lead);
+    await lead.post('/api/repositories').send({ name: 'yard-a' }).expect(201);
+    const taken = await lead.post('/api/repositories').send({ name: 'yard-a' }).expect(409);
+    expect(taken.body.error).toMatchObject({ code: 'conflict', field: 'name' });
+    expect(taken.body.error.message).toMatch(/already has this name/);
+    const other = (await lead.post('/api/repositories').send({ name: 'yard-b' }).expect(201)).body as RepositoryDTO;
+    const renamed = await lead.patch(`/api/repositories/${other.id}`).send({ name: 'yard-a' }).expect(409);
+    expect(renamed.body.error.field).toBe('name');
+    const race = await Promise.all([1, 2, 3, 4].map(() => lead.post('/api/repositories').send({ name: 'yard-c' })));
+    expect(race.map((r) => r.status).sort()).toEqual([201, 409, 409, 409]);
+    const names = (await lead.get('/api/repositories').expect(200)).body.repositories.map((r: RepositoryDTO) => r.name);
+    expect(names).toEqual(['yard-a', 'yard-b', 'yard-c']);
+  });
 });
 
 describe('PATCH /api/repositories/:id', () => {

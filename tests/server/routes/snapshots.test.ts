@@ -91,3 +91,16 @@ describe('GET /api/snapshots/:id', () => {
     expect(Object.keys(res.body.timings)).toEqual(expect.arrayContaining(['analyze', 'index', 'classes']));
   });
 });
+
+describe('another organisation', () => {
+  it('gets 404 for a snapshot, its classes, its comparison and a class it does not own', async () => {
+    const { team, loads } = await threeReleases();
+    const page = (await (await signedInAgent(app, team.viewer)).get(`/api/snapshots/${loads[0].snapshotId}/classes`).expect(200)).body as CloneClassPageDTO;
+    const stranger = await signedInAgent(app, (await buildTeam()).admin);
+    const id = loads[0].snapshotId;
+    for (const path of [`/api/snapshots/${id}`, `/api/snapshots/${id}/classes`, `/api/snapshots/${id}/comparison`, `/api/clone-classes/${page.classes[0].id}`]) {
+      const res = await stranger.get(path).expect(404);
+      expect(res.body.error.code, path).toBe('not_found');
+    }
+  });
+});

@@ -1,7 +1,8 @@
 /**
  * The clone report: what `doublet scan --format json` writes (from folders, in memory) and what
  * `doublet classes` writes (from a snapshot in the database). One schema, so that CI scripts
- * read both the same way.
+ * read both the same way. Counts are named as the web API names them (fragmentCount,
+ * fragmentTokens, pairCount, classCount).
  */
 import { z } from 'zod';
 
@@ -9,7 +10,7 @@ const count = z.number().int().nonnegative();
 const share = z.number().min(0).max(1);
 
 /** The settings the report was made with. */
-export const scanSettingsSchema = z.object({
+export const reportSettingsSchema = z.object({
   /** Jaccard threshold, for display (the join itself compares exact fractions). */
   threshold: share,
   /** Fragments with fewer raw tokens were dropped. */
@@ -23,22 +24,22 @@ export const scanSettingsSchema = z.object({
   snapshot: z.string().optional(),
 });
 
-/** Totals. Clone ratio = clonedTokens / tokens (0 when there are no tokens). */
-export const scanStatsSchema = z.object({
+/** Totals. Clone ratio = clonedTokens / fragmentTokens (0 when there are no tokens). */
+export const reportStatsSchema = z.object({
   /** Files analysed (parsed or failed). */
   files: count,
   /** Files not analysed (ignore rules, size, binary, unknown language…). */
   skippedFiles: count,
   /** Files that failed to parse or were cut off by the time limit. */
   failedFiles: count,
-  fragments: count,
+  fragmentCount: count,
   /** Source tokens inside fragments, each counted once (a nested function's tokens lie in its outer one too). */
-  tokens: count,
+  fragmentTokens: count,
   /** Source tokens inside fragments that are in at least one clone pair, each counted once. */
   clonedTokens: count,
   cloneRatio: share,
-  pairs: count,
-  classes: count,
+  pairCount: count,
+  classCount: count,
   /** Join counters (scan only). */
   candidates: count.optional(),
   verified: count.optional(),
@@ -81,18 +82,18 @@ export const reportClassSchema = z.object({
 });
 
 /** The whole report. Classes come largest first. */
-export const scanReportSchema = z.object({
-  settings: scanSettingsSchema,
-  stats: scanStatsSchema,
+export const cloneReportSchema = z.object({
+  settings: reportSettingsSchema,
+  stats: reportStatsSchema,
   fragments: z.array(reportFragmentSchema),
   pairs: z.array(reportPairSchema),
   classes: z.array(reportClassSchema),
 });
 
-export type ScanSettings = z.infer<typeof scanSettingsSchema>;
-export type ScanStats = z.infer<typeof scanStatsSchema>;
+export type ReportSettings = z.infer<typeof reportSettingsSchema>;
+export type ReportStats = z.infer<typeof reportStatsSchema>;
 export type ReportFragment = z.infer<typeof reportFragmentSchema>;
 export type ReportPair = z.infer<typeof reportPairSchema>;
 export type ReportClass = z.infer<typeof reportClassSchema>;
-/** The clone report (see scanReportSchema). */
-export type ScanReport = z.infer<typeof scanReportSchema>;
+/** The clone report (see cloneReportSchema). */
+export type CloneReport = z.infer<typeof cloneReportSchema>;

@@ -1,8 +1,10 @@
+/** Reads of a snapshot's clone classes: lists, one class with its members' code, gone classes (see README.md). */
+import type { Transaction } from 'sequelize';
 import type { ClassListQuery, CloneClassSummaryDTO } from '../../shared/api/snapshots';
 import { splitLines } from '../../analyzers/lines';
+import { clonePairsWithin, type FragmentPair, type SnapshotFragment } from '../clone-index/snapshot-pairs';
+import { select } from '../clone-index/sql';
 import { parseThreshold } from '../matching/threshold';
-import { clonePairsWithin, type Instance } from './snapshot-pairs';
-import { select } from './sql';
 
 /** A class row with its member paths, as lists show it: the columns the API's summary has. */
 export type ClassRow = CloneClassSummaryDTO;
@@ -60,19 +62,24 @@ export async function allSnapshotClasses(snapshotId: number): Promise<ClassRow[]
   return rows.map(sortPaths);
 }
 
-/** One class row, or undefined. */
-export async function findClass(id: number): Promise<(ClassRow & { repositoryId: number; snapshotLabel: string; threshold: string }) | undefined> {
-  const [row] = await select<ClassRow & { repositoryId: number; snapshotLabel: string; threshold: string }>(
+/** A class row with where it stands: its repository (and organisation), snapshot label and threshold. */
+export type ClassDetailRow = ClassRow & { organisationId: string; repositoryId: number; snapshotLabel: string; threshold: string };
+
+/** A class of a repository of the organisation, or undefined. */
+export async function findClass(organisationId: string, id: number): Promise<ClassDetailRow | undefined> {
+  const [row] = await select<ClassDetailRow>(
     undefined,
-    `select ${CLASS_COLUMNS}, s.repository_id as "repositoryId", s.label as "snapshotLabel", (s.settings->>'threshold') as threshold
-       from clone_classes c join snapshots s on s.id = c.snapshot_id where c.id = $1`,
-    [id],
+    `select ${CLASS_COLUMNS}, r.organisation_id as "organisationId", s.repository_id as "repositoryId", s.label as "snapshotLabel",
+            (s.settings->>'threshold') as threshold
+       from clone_classes c join snapshots s on s.id = c.snapshot_id join repositories r on r.id = s.repository_id
+      where c.id = $1 and r.organisation_id = $2`,
+    [id, organisationId],
   );
   return row && sortPaths(row);
 }
 
 /** A member of a class with its code and change flag. */
-export interface MemberRow extends Instance {
+export interface MemberRow extends SnapshotFragment {
   startColumn: number;
   endColumn: number;
   codeChanged: boolean;
@@ -83,7 +90,7 @@ export interface MemberRow extends Instance {
  * The members of a class with their source lines, and the clone pairs among them (recomputed
  * from the stored set pairs at the snapshot's threshold).
  */
-export async function classMembers(classId: number, threshold: string) {
+export async function classMembers(classId: number, threshold: string): Promise<{ members: MemberRow[]; pairs: FragmentPair[] }> {
   const members = await select<MemberRow & { text: string }>(
     undefined,
     `select sf.id as "snapshotFileId", f.id as "fragmentId", f.set_id as "setId", ss.size as "setSize", sf.path, sf.language,
@@ -119,4 +126,24 @@ export async function goneClasses(snapshotId: number, previousId: number): Promi
     [snapshotId, previousId],
   );
   return rows.map(sortPaths);
+}
+
+/** The members of each class of a snapshot, as (snapshot file, fragment) ids, classes in order. */
+export async function classMemberIds(
+  tx: Transaction | undefined,
+  snapshotId: number,
+): Promise<Map<number, { snapshotFileId: number; fragmentId: number }[]>> {
+  const rows = await select<{ classId: number; snapshotFileId: number; fragmentId: number }>(
+    tx,
+    `select m.class_id as "classId", m.snapshot_file_id as "snapshotFileId", m.fragment_id as "fragmentId"
+       from clone_class_members m join clone_classes c on c.id = m.class_id where c.snapshot_id = $1 order by c.ordinal`,
+    [snapshotId],
+  );
+  const grouped = new Map<number, { snapshotFileId: number; fragmentId: number }[]>();
+  for (const { classId, ...member } of rows) {
+    const list = grouped.get(classId) ?? [];
+    list.push(member);
+    grouped.set(classId, list);
+  }
+  return grouped;
 }

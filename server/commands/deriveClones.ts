@@ -1,0 +1,91 @@
+import type { Transaction } from 'sequelize';
+import { compareClasses, fragmentKey, occurrences, type FragmentIdentity } from '../clone-index/compare';
+import { repositoryThreshold, type RepositorySettings } from '../clone-index/options';
+import { clonePairsAcross, clonePairsWithin, snapshotFragments, type SnapshotFragment } from '../clone-index/snapshot-pairs';
+import { cloneClasses, clonedTokens } from '../matching/classes';
+import { classMemberIds } from '../queries/classes';
+import { insertSnapshotMetrics, previousReadySnapshot } from '../queries/snapshots';
+import { storeClasses } from '../queries/write-classes';
+import { classStats } from '../reports/class-stats';
+
+/** What deriving a snapshot's clones found. */
+export interface DerivedClones {
+  fragmentCount: number;
+  pairCount: number;
+  classCount: number;
+  cloneRatio: number;
+}
+
+/**
+ * The step of a load after its files are stored: the snapshot's clone pairs (from stored set
+ * pairs, at the repository's threshold), its classes compared with the previous ready snapshot's,
+ * its clone ratio and figures, all written in the load's transaction.
+ */
+export async function deriveClones(tx: Transaction, snapshotId: number, repository: RepositorySettings & { id: number }): Promise<DerivedClones> {
+  const t = repositoryThreshold(repository);
+  const fragments = await snapshotFragments(tx, snapshotId);
+  const pairs = await clonePairsWithin(tx, fragments, t);
+  const classes = cloneClasses(fragments.length, pairs);
+  const tokens = clonedTokens(fragments.map((x) => ({ file: x.snapshotFileId, tokenStart: x.tokenStart, tokenEnd: x.tokenEnd })), pairs);
+  const cloneRatio = tokens.total === 0 ? 0 : tokens.cloned / tokens.total;
+  const cross = await clonePairsAcross(tx, repository.id, fragments, t);
+
+  const mine = identities(fragments);
+  const previous = await previousClasses(tx, repository.id, snapshotId);
+  const comparison = compareClasses(classes.map((c) => c.map((i) => mine[i])), previous.classes, previous.fragments);
+
+  const stats = classStats(fragments.length, classes, pairs);
+  await storeClasses(
+    tx,
+    snapshotId,
+    classes.map((members, c) => ({
+      size: members.length,
+      tokens: members.reduce((sum, i) => sum + fragments[i].tokens, 0),
+      ...stats[c],
+      language: fragments[members[0]].language,
+      status: comparison.classes[c].status,
+      previousClassId: comparison.classes[c].previous >= 0 ? previous.classIds[comparison.classes[c].previous] : null,
+      members: members.map((i, m) => ({ snapshotFileId: fragments[i].snapshotFileId, fragmentId: fragments[i].fragmentId, codeChanged: comparison.classes[c].changed[m] })),
+    })),
+  );
+  const [type1Pairs, type2Pairs, type3Pairs] = [1, 2, 3].map((type) => pairs.filter((p) => p.type === type).length);
+  await insertSnapshotMetrics(tx, snapshotId, {
+    fragmentTokens: tokens.total,
+    clonedTokens: tokens.cloned,
+    cloneRatio,
+    pairCount: pairs.length,
+    classCount: classes.length,
+    type1Pairs,
+    type2Pairs,
+    type3Pairs,
+    crossPairCount: cross.length,
+    newClassCount: comparison.classes.filter((c) => c.status === 'new').length,
+    driftedClassCount: comparison.classes.filter((c) => c.status === 'drifted').length,
+    goneClassCount: comparison.gone.length,
+  });
+  return { fragmentCount: fragments.length, pairCount: pairs.length, classCount: classes.length, cloneRatio };
+}
+
+function identities(fragments: SnapshotFragment[]): FragmentIdentity[] {
+  const nth = occurrences(fragments);
+  return fragments.map((x, i) => ({ path: x.path, name: x.name, occurrence: nth[i], rawHash: x.rawHash }));
+}
+
+/**
+ * The previous ready snapshot's classes (as fragment identities, with their ids in the same
+ * order) and the raw hash of every one of its fragments by fragment key; all empty for a first
+ * snapshot.
+ */
+async function previousClasses(tx: Transaction, repositoryId: number, snapshotId: number) {
+  const previous = await previousReadySnapshot(tx, repositoryId, snapshotId);
+  if (!previous) return { classes: [], classIds: [], fragments: new Map<string, string>() };
+  const before = await snapshotFragments(tx, previous.id);
+  const theirs = identities(before);
+  const indexOf = new Map(before.map((x, i) => [`${x.snapshotFileId}:${x.fragmentId}`, i]));
+  const grouped = await classMemberIds(tx, previous.id);
+  return {
+    classes: [...grouped.values()].map((members) => members.map((m) => theirs[indexOf.get(`${m.snapshotFileId}:${m.fragmentId}`)!])),
+    classIds: [...grouped.keys()],
+    fragments: new Map(theirs.map((m) => [fragmentKey(m), m.rawHash])),
+  };
+}

@@ -1,0 +1,110 @@
+/**
+ * Writes and reads of what a load stores per file: contents (once per sha-256), analyses (once per
+ * content and analyzer options) with their fragments, and a snapshot's file list. Bulk writes are
+ * `unnest` batches: one statement per batch, never one per row (see README.md).
+ */
+import type { Transaction } from 'sequelize';
+import type { FileAnalysis } from '../../analyzers/types';
+import { chunks, execute, select } from '../clone-index/sql';
+
+/** Stores file texts not stored yet, by content hash (the bytes are UTF-8 text by the time they get here). */
+export async function storeContents(tx: Transaction, contents: Map<string, Uint8Array>): Promise<void> {
+  const hashes = [...contents.keys()];
+  for (const [start, end] of chunks(hashes.length, 500)) {
+    const slice = hashes.slice(start, end);
+    await execute(
+      tx,
+      `insert into file_contents (hash, text, byte_size) select * from unnest($1::text[], $2::text[], $3::int[]) on conflict do nothing`,
+      [slice, slice.map((h) => Buffer.from(contents.get(h)!).toString('utf8')), slice.map((h) => contents.get(h)!.byteLength)],
+    );
+  }
+}
+
+/** The analysis id of each content hash already analyzed under the options key. */
+export async function findAnalyses(tx: Transaction, hashes: string[], optionsKey: string): Promise<Map<string, number>> {
+  const rows = await select<{ id: number; contentHash: string }>(
+    tx,
+    'select id, content_hash as "contentHash" from analyses where options_key = $1 and content_hash = any($2::text[])',
+    [optionsKey, hashes],
+  );
+  return new Map(rows.map((r) => [r.contentHash, r.id]));
+}
+
+/** The language and parse error (if any) of each analysis, by id. */
+export async function analysisOutcomes(tx: Transaction, ids: number[]): Promise<Map<number, { language: string; error: string | null }>> {
+  const rows = await select<{ id: number; language: string; error: string | null }>(
+    tx,
+    'select id, language, error from analyses where id = any($1::int[])',
+    [ids],
+  );
+  return new Map(rows.map((r) => [r.id, r]));
+}
+
+/**
+ * Stores fresh analyses and their fragments; each fragment gets the shingle set id at its place
+ * in `setIds` (the fragments of all analyses in order). Adds the new analysis ids to `analysisIds`.
+ */
+export async function storeAnalyses(
+  tx: Transaction,
+  optionsKey: string,
+  fresh: { hash: string; analysis: FileAnalysis }[],
+  setIds: number[],
+  analysisIds: Map<string, number>,
+): Promise<void> {
+  if (fresh.length === 0) return;
+  const rows = await select<{ id: number; contentHash: string }>(
+    tx,
+    `insert into analyses (content_hash, options_key, language, error)
+     select h, $1, l, e from unnest($2::text[], $3::text[], $4::text[]) as t(h, l, e)
+     returning id, content_hash as "contentHash"`,
+    [optionsKey, fresh.map((f) => f.hash), fresh.map((f) => f.analysis.language), fresh.map((f) => f.analysis.error ?? null)],
+  );
+  for (const r of rows) analysisIds.set(r.contentHash, r.id);
+  const columns: unknown[][] = Array.from({ length: 14 }, () => []);
+  let setIndex = 0;
+  for (const { hash, analysis } of fresh) {
+    analysis.fragments.forEach((f, ordinal) => {
+      const values = [analysisIds.get(hash), ordinal, f.name, f.kind, f.startLine, f.startColumn, f.endLine, f.endColumn, f.tokens, f.tokenStart, f.tokenEnd, f.rawHash, f.normalizedHash, setIds[setIndex++]];
+      values.forEach((v, i) => columns[i].push(v));
+    });
+  }
+  for (const [start, end] of chunks(columns[0].length, 20_000)) {
+    await execute(
+      tx,
+      `insert into fragments (analysis_id, ordinal, name, kind, start_line, start_column, end_line, end_column, tokens, token_start, token_end, raw_hash, normalized_hash, set_id)
+       select * from unnest($1::int[], $2::int[], $3::text[], $4::text[], $5::int[], $6::int[], $7::int[], $8::int[], $9::int[], $10::int[], $11::int[], $12::text[], $13::text[], $14::int[])`,
+      columns.map((c) => c.slice(start, end)),
+    );
+  }
+}
+
+/** One file of a snapshot: analyzed (content and analysis), or skipped or failed with the reason. */
+export interface SnapshotFileRow {
+  path: string;
+  contentHash: string | null;
+  analysisId: number | null;
+  language: string | null;
+  skipReason: string | null;
+  error: string | null;
+}
+
+/** Stores a snapshot's files. */
+export async function storeSnapshotFiles(tx: Transaction, snapshotId: number, rows: SnapshotFileRow[]): Promise<void> {
+  for (const [start, end] of chunks(rows.length, 10_000)) {
+    const slice = rows.slice(start, end);
+    await execute(
+      tx,
+      `insert into snapshot_files (snapshot_id, path, content_hash, analysis_id, language, skip_reason, error)
+       select $1, * from unnest($2::text[], $3::text[], $4::int[], $5::text[], $6::text[], $7::text[])`,
+      [snapshotId, slice.map((r) => r.path), slice.map((r) => r.contentHash), slice.map((r) => r.analysisId), slice.map((r) => r.language), slice.map((r) => r.skipReason), slice.map((r) => r.error)],
+    );
+  }
+}
+
+/**
+ * Deletes every stored file text that no snapshot of any repository holds any more (its analyses
+ * and fragments go with it, by cascade).
+ */
+export function deleteUnheldContents(tx: Transaction): Promise<void> {
+  return execute(tx, `delete from file_contents fc where not exists (select 1 from snapshot_files sf where sf.content_hash = fc.hash)`);
+}

@@ -1,0 +1,15 @@
+/** The one schema of a Jaccard threshold a request may carry (repository settings, find copies). */
+import { z } from 'zod';
+import { INDEX_MIN_THRESHOLD } from '../constants';
+
+/**
+ * A threshold between the index threshold and 1 with at most six decimals (the server keeps it
+ * as an exact fraction; below the index threshold the stored prefixes are too short).
+ *
+ * @example thresholdSchema.parse(0.85) // 0.85
+ */
+export const thresholdSchema = z
+  .number({ error: 'The threshold is a number.' })
+  .min(INDEX_MIN_THRESHOLD, `The threshold is at least ${INDEX_MIN_THRESHOLD}.`)
+  .max(1, 'The threshold is at most 1.')
+  .refine((v) => Number.isInteger(Math.round(v * 1e6)) && Math.abs(v * 1e6 - Math.round(v * 1e6)) < 1e-6, 'At most six decimals.');
