@@ -8,10 +8,25 @@ function intFromEnv(name: string, fallback: number, { allowZero = false } = {}):
   const raw = process.env[name];
   if (raw === undefined || raw === '') return fallback;
   const value = Number(raw);
-  if (!Number.isInteger(value) || value < (allowZero ? 0 : 1)) {
+  // Plain digits only: Number() would also take "1e3", "0x10" or " 5 ".
+  const digits = allowZero ? /^(0|[1-9][0-9]*)$/ : /^[1-9][0-9]*$/;
+  if (!digits.test(raw) || !Number.isSafeInteger(value)) {
     throw new Error(`${name} must be a ${allowZero ? 'non-negative' : 'positive'} integer, got "${raw}"`);
   }
   return value;
+}
+
+/**
+ * Express's `trust proxy` from TRUST_PROXY: unset or `false` trusts no proxy (the client address is
+ * the socket's); `true` trusts every hop; a number trusts that many hops; anything else is a
+ * comma-separated list of addresses, subnets or Express's names (`loopback`, `uniquelocal`).
+ */
+function trustProxyFromEnv(): boolean | number | string[] {
+  const raw = (process.env.TRUST_PROXY ?? '').trim();
+  if (raw === '' || raw === 'false') return false;
+  if (raw === 'true') return true;
+  if (/^\d+$/.test(raw)) return Number(raw);
+  return raw.split(',').map((part) => part.trim()).filter(Boolean);
 }
 
 /**
@@ -34,7 +49,21 @@ export function loadConfig() {
     dataDir,
     pgDataDir: path.join(dataDir, 'postgres'),
     databaseName,
-    sessionSecret: process.env.SESSION_SECRET ?? 'doublet-local-development-secret',
+    /** SESSION_SECRET as set; unset means a generated one kept in the data directory (refused in production). */
+    sessionSecret: process.env.SESSION_SECRET || undefined,
+    production: process.env.NODE_ENV === 'production',
+    /** A session ends after this long without a request… */
+    sessionIdleMs: intFromEnv('SESSION_IDLE_HOURS', 12) * 60 * 60 * 1000,
+    /** …and, however busy, this long after its sign-in. */
+    sessionMaxAgeMs: intFromEnv('SESSION_MAX_DAYS', 7) * 24 * 60 * 60 * 1000,
+    trustProxy: trustProxyFromEnv(),
+    /** Failed credential checks allowed in one window (see server/auth/credential-limit.ts). */
+    credentialLimits: {
+      perAccount: intFromEnv('SIGN_IN_LIMIT_ACCOUNT', 10),
+      perAddress: intFromEnv('SIGN_IN_LIMIT_ADDRESS', 50),
+      perAccountEverywhere: intFromEnv('SIGN_IN_LIMIT_ACCOUNT_ALL_ADDRESSES', 100),
+      windowMs: intFromEnv('SIGN_IN_WINDOW_MINUTES', 15) * 60 * 1000,
+    },
     smtpPort: intFromEnv('DOUBLET_SMTP_PORT', 2526),
     publicUrl: process.env.PUBLIC_URL ?? `http://127.0.0.1:${intFromEnv('PORT', 3030, { allowZero: true })}`,
     mailFrom: process.env.MAIL_FROM ?? 'Doublet <doublet@localhost>',

@@ -1,7 +1,10 @@
 import connectPgSimple from 'connect-pg-simple';
+import type { Request, RequestHandler } from 'express';
 import session from 'express-session';
 import type { Sequelize } from 'sequelize';
 import { loadConfig } from '../config';
+import type { User } from '../models/User';
+import { sessionSecret } from './secret';
 import './types';
 
 /** Name of the session cookie. */
@@ -9,8 +12,6 @@ export const SESSION_COOKIE = 'doublet.sid';
 
 /** Name of the table created by migration 0004. */
 export const SESSION_TABLE = 'sessions';
-
-const MAX_AGE_MS = 12 * 60 * 60 * 1000;
 
 /**
  * A pg-Pool-shaped adapter over Sequelize's own connections, so the session store shares the
@@ -36,9 +37,11 @@ function poolOf(sequelize: Sequelize) {
 /**
  * express-session with sessions in PostgreSQL (connect-pg-simple, table from a migration) and an
  * httpOnly, SameSite=Lax cookie. Lax (not Strict) so a link from a mail to a page still arrives
- * signed in; cross-site POSTs carry no cookie, and the CSRF token guards the rest.
+ * signed in; cross-site POSTs carry no cookie, and the CSRF token guards the rest. Only a sign-in
+ * stores a session (`saveUninitialized: false`, and nothing else writes to an anonymous one); it
+ * ends after SESSION_IDLE_HOURS without a request (the cookie's rolling max-age and the row's expiry).
  */
-export function createSessionMiddleware(sequelize: Sequelize) {
+export function createSessionMiddleware(sequelize: Sequelize, options: { idleMs?: number } = {}) {
   const config = loadConfig();
   const PgStore = connectPgSimple(session);
   const store = new PgStore({
@@ -50,13 +53,43 @@ export function createSessionMiddleware(sequelize: Sequelize) {
   });
   return session({
     name: SESSION_COOKIE,
-    secret: config.sessionSecret,
+    secret: sessionSecret(),
     store,
     resave: false,
     saveUninitialized: false,
     rolling: true,
-    cookie: { httpOnly: true, sameSite: 'lax', secure: config.secureCookies, maxAge: MAX_AGE_MS, path: '/' },
+    cookie: { httpOnly: true, sameSite: 'lax', secure: config.secureCookies, maxAge: options.idleMs ?? config.sessionIdleMs, path: '/' },
   });
+}
+
+/**
+ * Signs a user in: a new session id (passport regenerates it, so no fixation and the old CSRF token
+ * dies with the old id) and the time of sign-in, from which the absolute lifetime is counted.
+ */
+export function startSignedInSession(req: Request, user: User): Promise<void> {
+  return new Promise((resolve, reject) =>
+    req.logIn(user, (error) => {
+      if (error) return reject(error);
+      req.session.signedInAt = Date.now();
+      resolve();
+    }),
+  );
+}
+
+/**
+ * Ends a signed-in session that is older than `maxAgeMs` since its sign-in (SESSION_MAX_DAYS),
+ * however busy it has been, and one that has no sign-in time; the request goes on as anonymous
+ * (guarded routes answer 401). Runs after passport has read the session.
+ */
+export function absoluteSessionLifetime(maxAgeMs: number): RequestHandler {
+  return (req, _res, next) => {
+    if (!req.user) return next();
+    const signedInAt = req.session?.signedInAt;
+    if (typeof signedInAt === 'number' && Date.now() - signedInAt <= maxAgeMs) return next();
+    delete req.user;
+    // A fresh, empty session (the old row is deleted; the new one is stored only if someone signs in).
+    req.session.regenerate((error) => next(error));
+  };
 }
 
 /**

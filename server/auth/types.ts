@@ -2,7 +2,7 @@ import type { User as UserModel } from '../models/User';
 
 /**
  * Type augmentations: `req.user` is the User model (loaded fresh on every request by passport's
- * deserializer), and the session stores the CSRF token.
+ * deserializer), and the session stores when its user signed in (for the absolute lifetime).
  */
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
@@ -14,7 +14,8 @@ declare global {
 
 declare module 'express-session' {
   interface SessionData {
-    csrfToken?: string;
+    /** Milliseconds since the epoch at sign-in. */
+    signedInAt?: number;
   }
 }
 

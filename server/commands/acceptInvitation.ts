@@ -7,6 +7,13 @@ import { ConflictError, NotFoundError } from '../errors';
 import { Invitation } from '../models/Invitation';
 import { User } from '../models/User';
 
+/** 404 for an unknown, used or expired link: the failure the sign-in limits count for invitation links. */
+export class UnusableInvitationError extends NotFoundError {
+  constructor() {
+    super('Invitation link (it may be used or expired)');
+  }
+}
+
 /**
  * The usable invitation behind a one-time token, or a 404 (unknown, used, or expired: the answer
  * is the same so a link reveals nothing once it is spent).
@@ -17,7 +24,7 @@ export async function findUsableInvitation(token: string, transaction?: Transact
     transaction,
     lock: transaction ? transaction.LOCK.UPDATE : undefined,
   });
-  if (!invitation || !invitation.isUsable()) throw new NotFoundError('Invitation link (it may be used or expired)');
+  if (!invitation || !invitation.isUsable()) throw new UnusableInvitationError();
   return invitation;
 }
 

@@ -22,6 +22,11 @@ export function invitationLink(token: string): string {
  * Invites someone to the actor's organisation: stores the invitation (only the token's hash),
  * retires earlier pending invitations to the same address, and mails the one-time link. The mail
  * goes out after the write commits, so a failed write never sends a link that does not work.
+ *
+ * An address that already has an account in another organisation gets the same answer as any
+ * other (the admin must not learn who has an account elsewhere): the invitation is stored and
+ * listed as pending, and the mail, which only the address's owner reads, says that the address
+ * already has an account (one address belongs to one organisation) instead of holding a link.
  */
 export async function inviteUser(input: {
   actor: User;
@@ -33,8 +38,10 @@ export async function inviteUser(input: {
   const now = new Date();
 
   const write = async (transaction: Transaction) => {
-    if (await User.findOne({ where: { email: invitee.email }, transaction })) {
-      throw new ConflictError('Someone with this e-mail address already has an account.', 'email');
+    const existing = await User.findOne({ where: { email: invitee.email }, transaction });
+    // Someone of the admin's own organisation: the admin sees them in the user list anyway.
+    if (existing?.organisationId === actor.organisationId) {
+      throw new ConflictError('Someone in your organisation already has an account with this e-mail address.', 'email');
     }
     await Invitation.update(
       { expiresAt: now },
@@ -56,10 +63,10 @@ export async function inviteUser(input: {
       { transaction },
     );
     const organisation = await Organisation.findByPk(actor.organisationId, { transaction, rejectOnEmpty: true });
-    return { invitation, organisation };
+    return { invitation, organisation, hasAccountElsewhere: existing !== null };
   };
 
-  const { invitation, organisation } = input.transaction
+  const { invitation, organisation, hasAccountElsewhere } = input.transaction
     ? await write(input.transaction)
     : await db().transaction(write);
 
@@ -72,6 +79,8 @@ export async function inviteUser(input: {
       roleLabel: ROLE_LABELS[invitation.role],
       link: invitationLink(token),
       expiresAt: invitation.expiresAt,
+      hasAccountElsewhere,
+      signInLink: `${loadConfig().publicUrl.replace(/\/$/, '')}/sign-in`,
     }),
   );
   return invitation;

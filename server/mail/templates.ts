@@ -5,10 +5,12 @@ function escapeHtml(value: string): string {
 }
 
 /**
- * The invitation mail: who invited whom to which organisation, with the one-time link.
+ * The invitation mail: who invited whom to which organisation, with the one-time link. When the
+ * address already has a Doublet account (in another organisation: one address belongs to one
+ * organisation), the mail says so and how to go on instead of holding a link that could not work.
  *
  * @example
- * invitationMail({ to, inviteeName: 'Ana', inviterName: 'Ines', organisationName: 'Acme', role: 'Engineer', link, expiresAt })
+ * invitationMail({ to, inviteeName: 'Ana', inviterName: 'Ines', organisationName: 'Acme', roleLabel: 'Engineer', link, expiresAt })
  */
 export function invitationMail(input: {
   to: string;
@@ -18,12 +20,38 @@ export function invitationMail(input: {
   roleLabel: string;
   link: string;
   expiresAt: Date;
+  hasAccountElsewhere?: boolean;
+  signInLink?: string;
 }): MailMessage {
   const expires = input.expiresAt.toISOString().slice(0, 10);
+  const subject = `You are invited to ${input.organisationName} on Doublet`;
+  const greeting = `Hello ${input.inviteeName},`;
+  const invited = `${input.inviterName} invited you to ${input.organisationName} on Doublet as ${input.roleLabel}.`;
+  if (input.hasAccountElsewhere) {
+    const signIn = input.signInLink ?? input.link;
+    const text = [
+      greeting,
+      '',
+      invited,
+      'This e-mail address already has a Doublet account, and one address can belong to one organisation only,',
+      'so this invitation cannot be accepted with it. You can sign in to your account as usual:',
+      '',
+      signIn,
+      '',
+      `To join ${input.organisationName} as well, ask ${input.inviterName} to invite another address of yours.`,
+      'If you did not expect this, ignore this mail.',
+    ].join('\n');
+    const html =
+      `<p>${escapeHtml(greeting)}</p><p>${escapeHtml(invited)}</p>` +
+      '<p>This e-mail address already has a Doublet account, and one address can belong to one organisation only, ' +
+      `so this invitation cannot be accepted with it. You can <a href="${escapeHtml(signIn)}">sign in to your account</a> as usual.</p>` +
+      `<p>To join ${escapeHtml(input.organisationName)} as well, ask ${escapeHtml(input.inviterName)} to invite another address of yours.</p>`;
+    return { to: input.to, subject, text, html };
+  }
   const text = [
-    `Hello ${input.inviteeName},`,
+    greeting,
     '',
-    `${input.inviterName} invited you to ${input.organisationName} on Doublet as ${input.roleLabel}.`,
+    invited,
     'Open this link to choose your password (it works once, until ' + expires + '):',
     '',
     input.link,
@@ -31,9 +59,9 @@ export function invitationMail(input: {
     'If you did not expect this, ignore this mail.',
   ].join('\n');
   const html =
-    `<p>Hello ${escapeHtml(input.inviteeName)},</p>` +
+    `<p>${escapeHtml(greeting)}</p>` +
     `<p>${escapeHtml(input.inviterName)} invited you to ${escapeHtml(input.organisationName)} on Doublet as ` +
     `${escapeHtml(input.roleLabel)}.</p>` +
     `<p><a href="${escapeHtml(input.link)}">Choose your password</a> (the link works once, until ${expires}).</p>`;
-  return { to: input.to, subject: `You are invited to ${input.organisationName} on Doublet`, text, html };
+  return { to: input.to, subject, text, html };
 }

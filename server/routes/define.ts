@@ -27,17 +27,12 @@ export type Guard = 'public' | 'signedIn' | Action;
 /** HTTP methods a route may use. */
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
-/** Per-app middleware a route may ask for by name (created in buildApiRouter, so each app has its own). */
-export type NamedMiddleware = 'signInRateLimit';
-
 /** One route as a router file declares it. */
 export interface RouteSpec {
   method: Method;
   /** Path inside the group, Express syntax (`/:id/role`). */
   path: string;
   guard: Guard;
-  /** Middleware to run before the guard, by name. */
-  use?: NamedMiddleware[];
   handler: (req: Request, res: Response) => unknown;
 }
 

@@ -1,9 +1,8 @@
 import express, { type RequestHandler } from 'express';
 import { optionalUser } from '../auth/current-user';
 import { csrfProtection } from '../auth/csrf';
-import { signInRateLimit } from '../auth/rate-limit';
 import { AuthenticationError, fromDatabaseError, HttpError } from '../errors';
-import { declaredRoutes, guardMiddleware, type DeclaredRoute, type NamedMiddleware, type RouteGroup } from './define';
+import { declaredRoutes, guardMiddleware, type DeclaredRoute, type RouteGroup } from './define';
 import { healthRoutes } from './health';
 import { invitationRoutes } from './invitations';
 import { sessionRoutes } from './session';
@@ -30,21 +29,14 @@ export function registeredRoutes(): DeclaredRoute[] {
   return declaredRoutes(ROUTE_GROUPS);
 }
 
-/** Options of the API router (tests lower the sign-in limit). */
-export interface ApiRouterOptions {
-  signInAttempts?: number;
-}
-
 /**
- * The /api router: each declared route runs its named middleware, its guard (401/403), the CSRF
- * check (state-changing methods only), then its handler. Anything else under /api answers 401 to
- * anonymous callers (so unknown routes reveal nothing) and 404 to signed-in ones.
+ * The /api router: each declared route runs its guard (401/403), the CSRF check (state-changing
+ * methods only), then its handler. Anything else under /api answers 401 to anonymous callers (so
+ * unknown routes reveal nothing) and 404 to signed-in ones. Sign-in limits are not middleware: they
+ * wrap the credential check itself (server/auth/credential-limit.ts), so refusals before it never count.
  */
-export function buildApiRouter(options: ApiRouterOptions = {}): express.Router {
+export function buildApiRouter(): express.Router {
   const router = express.Router();
-  const named: Record<NamedMiddleware, RequestHandler> = {
-    signInRateLimit: signInRateLimit({ attempts: options.signInAttempts }),
-  };
   const csrf = csrfProtection();
 
   for (const group of ROUTE_GROUPS) {
@@ -57,7 +49,7 @@ export function buildApiRouter(options: ApiRouterOptions = {}): express.Router {
           next(fromDatabaseError(error));
         }
       };
-      router[route.method](path, ...(route.use ?? []).map((name) => named[name]), guardMiddleware(route.guard), csrf, handler);
+      router[route.method](path, guardMiddleware(route.guard), csrf, handler);
     }
   }
 

@@ -5,8 +5,10 @@ import {
   inviteUserSchema,
   type InvitationListDTO,
 } from '../../shared/api/invitations';
+import type { Request } from 'express';
+import { clientAddress, credentialLimiterOf } from '../auth/credential-limit';
 import { currentUser } from '../auth/current-user';
-import { acceptInvitation, findUsableInvitation } from '../commands/acceptInvitation';
+import { acceptInvitation, findUsableInvitation, UnusableInvitationError } from '../commands/acceptInvitation';
 import { inviteUser } from '../commands/inviteUser';
 import { revokeInvitation } from '../commands/revokeInvitation';
 import { found } from '../errors';
@@ -16,6 +18,12 @@ import { presentUser } from '../presenters/user';
 import { findInvitation, findOrganisation, listPendingInvitations } from '../queries/people';
 import { defineRoutes } from './define';
 import { parse } from './validate';
+
+/** Runs a look-up of a one-time link under the sign-in limits: an unusable link counts as a failed check. */
+function limitedLinkCheck<T>(req: Request, check: () => Promise<T>): Promise<T> {
+  const limiter = credentialLimiterOf(req);
+  return limiter.guard(limiter.addressKeys(clientAddress(req)), check, (error) => error instanceof UnusableInvitationError);
+}
 
 /**
  * /api/invitations: admins invite people and see or revoke pending invitations; the one-time
@@ -64,7 +72,7 @@ export const invitationRoutes = defineRoutes('/invitations', [
     guard: 'public',
     handler: async (req, res) => {
       const { token } = parse(invitationTokenParamsSchema, req.params);
-      const invitation = await findUsableInvitation(token);
+      const invitation = await limitedLinkCheck(req, () => findUsableInvitation(token));
       const organisation = found(await findOrganisation(invitation.organisationId), 'Organisation');
       res.json(presentInvitationPreview(invitation, organisation));
     },
@@ -76,7 +84,7 @@ export const invitationRoutes = defineRoutes('/invitations', [
     handler: async (req, res) => {
       const { token } = parse(invitationTokenParamsSchema, req.params);
       const body = parse(acceptInvitationSchema, req.body);
-      const user = await acceptInvitation({ token, ...body });
+      const user = await limitedLinkCheck(req, () => acceptInvitation({ token, ...body }));
       res.status(201).json(presentUser(user));
     },
   },

@@ -3,10 +3,11 @@
  * their clone ratio over releases.
  */
 import { z } from 'zod';
+import { serialIdSchema } from './ids';
 import { thresholdSchema } from './threshold';
 
 /** Path parameters of /api/repositories/:id. */
-export const repositoryParamsSchema = z.object({ id: z.coerce.number().int().positive({ error: 'Not a repository id.' }) });
+export const repositoryParamsSchema = z.object({ id: serialIdSchema('repository') });
 
 const settingsShape = {
   description: z.string().trim().max(500, 'A description has at most 500 characters.'),

@@ -4,9 +4,10 @@
  * comparison with the previous snapshot.
  */
 import { z } from 'zod';
+import { serialIdSchema } from './ids';
 
 /** Path parameters of /api/snapshots/:id and /api/clone-classes/:id. */
-export const idParamsSchema = z.object({ id: z.coerce.number().int().positive({ error: 'Not an id.' }) });
+export const idParamsSchema = z.object({ id: serialIdSchema('record') });
 
 /** What a class is, compared with the previous snapshot. */
 export const CLASS_STATUSES = ['new', 'unchanged', 'grown', 'shrunk', 'edited', 'drifted'] as const;

@@ -18,11 +18,16 @@ describe('GET /api/session', () => {
   it('answers anonymous callers with no user and a CSRF token', async () => {
     const res = await request(createApp()).get('/api/session').expect(200);
     expect(res.body.user).toBeNull();
-    expect(res.body.csrfToken).toMatch(/^[A-Za-z0-9_-]{43}$/);
+    expect(res.body.csrfToken).toMatch(/^[0-9a-f]{64}\.[0-9a-f]{64}$/);
   });
 
-  it('sets an httpOnly, SameSite=Lax session cookie', async () => {
-    const res = await request(createApp()).get('/api/session').expect(200);
+  it('sets no session cookie for anonymous callers, and an httpOnly, SameSite=Lax one at sign-in', async () => {
+    const app = createApp();
+    const anonymous = await request(app).get('/api/session').expect(200);
+    expect(sessionCookie(anonymous)).toBeUndefined();
+    const agent = await anonymousAgent(app);
+    const user = await buildUser();
+    const res = await agent.post('/api/session').send({ email: user.email, password: TEST_PASSWORD }).expect(200);
     const cookie = sessionCookie(res);
     expect(cookie).toBeDefined();
     expect(cookie).toMatch(/HttpOnly/i);
@@ -55,9 +60,9 @@ describe('POST /api/session (sign in)', () => {
     expect(JSON.stringify(res.body)).not.toContain('passwordHash');
     expect(JSON.stringify(res.body)).not.toContain(user.passwordHash);
     expect(res.body.organisation.id).toBe(user.organisationId);
-    // A new session id (no fixation) and a new CSRF token.
+    // A session only from sign-in on (no fixation: nothing existed before), and a new CSRF token.
+    expect(sessionCookie(before)).toBeUndefined();
     expect(sessionCookie(res)).toBeDefined();
-    expect(sessionCookie(res)!.split(';')[0]).not.toBe(sessionCookie(before)!.split(';')[0]);
     expect(res.body.csrfToken).not.toBe(before.body.csrfToken);
     const me = await agent.get('/api/session').expect(200);
     expect(me.body.user.id).toBe(user.id);
@@ -111,7 +116,7 @@ describe('POST /api/session (sign in)', () => {
   });
 
   it('limits failed attempts per client (429), and does not count successful ones', async () => {
-    const app = createApp({ signInAttempts: 3 });
+    const app = createApp({ limits: { perAccount: 3 } });
     const user = await buildUser();
     const agent = await anonymousAgent(app);
     const ok = await agent.post('/api/session').send({ email: user.email, password: TEST_PASSWORD }).expect(200);
