@@ -23,7 +23,12 @@ async function main() {
   else console.log('Demo sign-ins, if the demo organisation is still there (role, e-mail, password):');
   for (const line of demoSignInLines()) console.log(line);
   console.log('Building the client…');
+  const nodeEnv = process.env.NODE_ENV;
   await build({ configFile: `${projectRoot}/vite.config.ts`, logLevel: 'warn' });
+  // vite's build() sets NODE_ENV=production in this process; whether the server runs in production
+  // (and so refuses a missing SESSION_SECRET) is the operator's setting, not the client build's.
+  if (nodeEnv === undefined) delete process.env.NODE_ENV;
+  else process.env.NODE_ENV = nodeEnv;
   drainOnSignals(await serve());
 }
 
