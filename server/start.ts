@@ -3,7 +3,8 @@ import { demoSignInLines, seedDemo } from './commands/seedDemo';
 import { seedDemoRepositories } from './commands/seedDemoRepositories';
 import { projectRoot } from './config';
 import { openDatabase } from './db';
-import { drainOnSignals, serve } from './index';
+import { drainOnSignals, onShutdown, serve } from './index';
+import { startEmbedded, stopEmbedded } from './jobs';
 import { initModels } from './models';
 
 /**
@@ -14,6 +15,9 @@ import { initModels } from './models';
 async function main() {
   const sequelize = await openDatabase();
   initModels(sequelize);
+  await startEmbedded();
+  // Jobs in hand finish (or are left to be retried) after the HTTP requests, within the grace period.
+  onShutdown('jobs and the mail catcher', stopEmbedded);
   const seeded = await seedDemo();
   if (seeded) {
     console.log(`Seeding the demo organisation "${seeded.name}" with its repositories…`);

@@ -25,6 +25,7 @@ export const ACTIONS = [
   'tasks.comment',
   'findCopies.use',
   'apiTokens.manage',
+  'outbox.read',
 ] as const;
 
 /** One guarded action. */
@@ -54,6 +55,7 @@ export const MINIMUM_ROLE: Readonly<Record<Action, Role>> = {
   'tasks.comment': 'engineer',
   'findCopies.use': 'engineer',
   'apiTokens.manage': 'lead',
+  'outbox.read': 'admin',
 };
 
 /**

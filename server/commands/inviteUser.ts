@@ -70,8 +70,9 @@ export async function inviteUser(input: {
     ? await write(input.transaction)
     : await db().transaction(write);
 
-  await sendMail(
-    invitationMail({
+  await sendMail({
+    organisationId: invitation.organisationId,
+    ...invitationMail({
       to: invitation.email,
       inviteeName: invitation.name,
       inviterName: actor.name,
@@ -82,6 +83,6 @@ export async function inviteUser(input: {
       hasAccountElsewhere,
       signInLink: `${loadConfig().publicUrl.replace(/\/$/, '')}/sign-in`,
     }),
-  );
+  });
   return invitation;
 }

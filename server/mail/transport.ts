@@ -1,4 +1,5 @@
-import nodemailer from 'nodemailer';
+import crypto from 'node:crypto';
+import nodemailer, { type Transporter } from 'nodemailer';
 import { loadConfig } from '../config';
 
 /** One e-mail as the product writes it. */
@@ -7,47 +8,86 @@ export interface MailMessage {
   subject: string;
   text: string;
   html?: string;
+  /**
+   * The organisation the mail is about. It travels as the `X-Doublet-Organisation` header, so
+   * the catcher can show the mail to that organisation's admins only.
+   */
+  organisationId?: string;
 }
 
-/** A message as it left the transport, kept for tests and for the later local mail catcher. */
-export interface SentMail extends MailMessage {
-  from: string;
+/** A message on its way: what a `mail.send` job carries. */
+export interface OutgoingMail extends MailMessage {
+  /** Chosen once when the mail is queued, so a retried delivery carries the same Message-ID. */
   messageId: string;
-  sentAt: Date;
+}
+
+/** The header that names the organisation a mail is about. */
+export const ORGANISATION_HEADER = 'X-Doublet-Organisation';
+
+/** Where mail is delivered: a real server by URL, or a plain SMTP host and port (the local catcher). */
+export type MailTarget = { url: string } | { host: string; port: number };
+
+let override: MailTarget | undefined;
+let cached: { key: string; transport: Transporter } | undefined;
+
+/**
+ * Points delivery at another server for this process (tests point it at their own catcher on an
+ * ephemeral port); `undefined` goes back to the configured one.
+ *
+ * @example
+ * setMailTarget({ host: '127.0.0.1', port: catcher.port });
+ */
+export function setMailTarget(target: MailTarget | undefined): void {
+  override = target;
+}
+
+/** The configured target: SMTP_URL when set, else the local catcher on 127.0.0.1:DOUBLET_SMTP_PORT. */
+export function mailTarget(): MailTarget {
+  if (override) return override;
+  const config = loadConfig();
+  return config.smtpUrl ? { url: config.smtpUrl } : { host: '127.0.0.1', port: config.smtpPort };
+}
+
+// Bounded waits: a mail server that hangs fails the attempt, and the job's retries take over.
+const TIMEOUTS = { connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 30_000 };
+
+function transportFor(target: MailTarget): Transporter {
+  const key = JSON.stringify(target);
+  if (cached?.key === key) return cached.transport;
+  cached?.transport.close();
+  const transport =
+    'url' in target
+      ? nodemailer.createTransport({ url: target.url, ...TIMEOUTS })
+      : // The local catcher speaks plain SMTP on loopback only: no TLS to negotiate.
+        nodemailer.createTransport({ host: target.host, port: target.port, secure: false, ignoreTLS: true, ...TIMEOUTS });
+  cached = { key, transport };
+  return transport;
 }
 
 /**
- * For now a JSON transport: nodemailer builds the message but does not deliver it, and the message
- * is recorded in memory. A later change swaps this file's transport for the local SMTP catcher;
- * callers only ever use sendMail().
- */
-const transport = nodemailer.createTransport({ jsonTransport: true });
-const outbox: SentMail[] = [];
-const OUTBOX_LIMIT = 200;
-
-/**
- * Sends one e-mail and records it. Only the recipient and subject go to the console, never the
- * body (it can hold one-time links).
+ * A Message-ID for a new mail, on the sender's domain.
  *
  * @example
- * await sendMail({ to: 'ana@example.test', subject: 'Hello', text: 'Hi' });
+ * newMessageId() // '<3f0c…@doublet.localhost>'
  */
-export async function sendMail(message: MailMessage): Promise<SentMail> {
+export function newMessageId(): string {
   const from = loadConfig().mailFrom;
-  const info = await transport.sendMail({ from, ...message });
-  const sent: SentMail = { ...message, from, messageId: info.messageId, sentAt: new Date() };
-  outbox.push(sent);
-  if (outbox.length > OUTBOX_LIMIT) outbox.shift();
-  if (!process.env.DOUBLET_TEST) console.log(`mail: "${message.subject}" to ${message.to}`);
-  return sent;
+  const domain = /@([^>\s]+)>?\s*$/.exec(from)?.[1] ?? 'doublet.localhost';
+  return `<${crypto.randomUUID()}@${domain}>`;
 }
 
 /**
- * The messages recorded by this process, oldest first; with `to`, only those to that address.
- *
- * @example
- * sentMail('ana@example.test').at(-1)?.subject
+ * Hands one message to the SMTP server now; throws when the server cannot be reached or refuses
+ * it (the `mail.send` job retries). Only the recipient and subject are ever logged, never the body:
+ * it can hold one-time links.
  */
-export function sentMail(to?: string): SentMail[] {
-  return to ? outbox.filter((m) => m.to === to) : [...outbox];
+export async function deliver(mail: OutgoingMail): Promise<void> {
+  const { organisationId, messageId, ...message } = mail;
+  await transportFor(mailTarget()).sendMail({
+    from: loadConfig().mailFrom,
+    ...message,
+    messageId,
+    headers: organisationId ? { [ORGANISATION_HEADER]: organisationId } : undefined,
+  });
+  if (!process.env.DOUBLET_TEST) console.log(`mail: "${mail.subject}" to ${mail.to}`);
 }

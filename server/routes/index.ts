@@ -11,6 +11,7 @@ import { cloneClassRoutes } from './clone-classes';
 import { findCopiesRoutes } from './find-copies';
 import { repositoryRoutes } from './repositories';
 import { snapshotRoutes } from './snapshots';
+import { outboxRoutes } from './outbox';
 
 /** Every resource's routes. Add new router files here; tests read this list. */
 export const ROUTE_GROUPS: RouteGroup[] = [
@@ -22,6 +23,7 @@ export const ROUTE_GROUPS: RouteGroup[] = [
   snapshotRoutes,
   cloneClassRoutes,
   findCopiesRoutes,
+  outboxRoutes,
 ];
 
 /** Every declared API route with its full path and guard (what the route × role tests enumerate). */

@@ -11,10 +11,10 @@ useDatabase();
 /**
  * Navigation each role should see, written out from the product brief rather than computed from
  * shared/permissions.ts: viewers read only (no Find copies), engineers add Find copies, leads add
- * API tokens, admins add Admin.
+ * API tokens, admins add Admin and their Outbox.
  */
 const EXPECTED_NAV: Record<Role, string[]> = {
-  admin: ['Overview', 'Repositories', 'Clone classes', 'Find copies', 'Tasks', 'API tokens', 'Admin'],
+  admin: ['Overview', 'Repositories', 'Clone classes', 'Find copies', 'Tasks', 'API tokens', 'Admin', 'Outbox'],
   lead: ['Overview', 'Repositories', 'Clone classes', 'Find copies', 'Tasks', 'API tokens'],
   engineer: ['Overview', 'Repositories', 'Clone classes', 'Find copies', 'Tasks'],
   viewer: ['Overview', 'Repositories', 'Clone classes', 'Tasks'],

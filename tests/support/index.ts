@@ -4,3 +4,4 @@ export { TEST_PASSWORD, buildOrganisation, buildTeam, buildUser, uniqueEmail, ty
 export { anonymousAgent, signedInAgent, type Agent } from './agents';
 export { buildRepository, describedPairs, loadFolder, RELEASES } from './snapshots';
 export { PASTED_PRICING_RULE } from './snippets';
+export { useMail, mailTo, invitationTokenMailedTo, QUICK_RETRIES, type MailHarness } from './mail';

@@ -1,22 +1,21 @@
 import { describe, expect, it } from 'vitest';
 import { acceptInvitation } from '../../../server/commands/acceptInvitation';
 import { inviteUser } from '../../../server/commands/inviteUser';
-import { sentMail } from '../../../server/mail';
 import { Invitation } from '../../../server/models/Invitation';
-import { buildUser, uniqueEmail, useDatabase } from '../../support';
+import { buildUser, invitationTokenMailedTo, uniqueEmail, useDatabase, useMail } from '../../support';
 
 useDatabase();
+useMail();
 
-function lastToken(email: string): string {
-  return /\/invitations\/([A-Za-z0-9_-]{43})/.exec(sentMail(email).at(-1)!.text)![1];
-}
+/** The token of the one invitation mailed to the address, from the catcher's outbox. */
+const lastToken = (email: string) => invitationTokenMailedTo(email);
 
 describe('acceptInvitation', () => {
   it('stores only the hash of the token', async () => {
     const admin = await buildUser({ role: 'admin' });
     const email = uniqueEmail();
     const invitation = await inviteUser({ actor: admin, invitee: { email, name: 'Kit', role: 'viewer' } });
-    const token = lastToken(email);
+    const token = await lastToken(email);
     const stored = await Invitation.findByPk(invitation.id);
     expect(stored!.tokenHash).toMatch(/^[0-9a-f]{64}$/);
     expect(stored!.tokenHash).not.toContain(token);
@@ -27,7 +26,7 @@ describe('acceptInvitation', () => {
       const admin = await buildUser({ role: 'admin' });
       const email = uniqueEmail();
       await inviteUser({ actor: admin, invitee: { email, name: 'Twin', role: 'engineer' } });
-      const token = lastToken(email);
+      const token = await lastToken(email);
       const results = await Promise.allSettled([
         acceptInvitation({ token, name: 'Twin', password: 'first-click-password' }),
         acceptInvitation({ token, name: 'Twin', password: 'second-click-password' }),
@@ -42,7 +41,7 @@ describe('acceptInvitation', () => {
       const email = uniqueEmail();
       const invitation = await inviteUser({ actor: admin, invitee: { email, name: 'Late', role: 'viewer' } });
       await invitation.update({ expiresAt: new Date(Date.now() - 1000) });
-      await expect(acceptInvitation({ token: lastToken(email), name: 'Late', password: 'too-late-password' })).rejects.toMatchObject({
+      await expect(acceptInvitation({ token: await lastToken(email), name: 'Late', password: 'too-late-password' })).rejects.toMatchObject({
         status: 404,
       });
     });

@@ -29,6 +29,7 @@ const EXPECTED: Record<Action, Role[]> = {
   'tasks.comment': ['admin', 'lead', 'engineer'],
   'findCopies.use': ['admin', 'lead', 'engineer'],
   'apiTokens.manage': ['admin', 'lead'],
+  'outbox.read': ['admin'],
 };
 
 const ORG = 'org-1';

@@ -1,24 +1,18 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { Express } from 'express';
 import { createApp } from '../../../server/app';
-import { sentMail } from '../../../server/mail';
-import { anonymousAgent, buildTeam, buildUser, signedInAgent, uniqueEmail, useDatabase } from '../../support';
+import { anonymousAgent, buildTeam, buildUser, invitationTokenMailedTo, mailTo, signedInAgent, uniqueEmail, useDatabase, useMail } from '../../support';
 
 useDatabase();
+useMail();
 
 let app: Express;
 beforeAll(() => {
   app = createApp();
 });
 
-/** The one-time token of the last invitation mailed to an address. */
-function tokenMailedTo(email: string): string {
-  const mail = sentMail(email).at(-1);
-  if (!mail) throw new Error(`no mail to ${email}`);
-  const match = /\/invitations\/([A-Za-z0-9_-]{43})\b/.exec(mail.text);
-  if (!match) throw new Error('no invitation link in the mail');
-  return match[1];
-}
+/** The one-time token of the `count`-th invitation mailed to an address, read from the catcher's outbox. */
+const tokenMailedTo = invitationTokenMailedTo;
 
 describe('the invitation flow', () => {
   it('invite → the mail holds a one-time link → accept sets a password → sign in → the link is spent', async () => {
@@ -30,9 +24,10 @@ describe('the invitation flow', () => {
     expect(invited.body).toMatchObject({ email, name: 'Noor Halvorsen', role: 'engineer', acceptedAt: null });
     expect(JSON.stringify(invited.body)).not.toMatch(/token/i);
 
-    const mail = sentMail(email).at(-1)!;
+    const [mail] = await mailTo(email);
     expect(mail.subject).toContain(team.organisation.name);
-    const token = tokenMailedTo(email);
+    expect(mail.organisationId).toBe(team.organisation.id);
+    const token = await tokenMailedTo(email);
     expect(mail.html).toContain(token);
 
     const listed = await admin.get('/api/invitations').expect(200);
@@ -79,7 +74,7 @@ describe('the invitation flow', () => {
     const admin = await signedInAgent(app, team.admin);
     const email = uniqueEmail('weak');
     await admin.post('/api/invitations').send({ email, name: 'Wren', role: 'viewer' }).expect(201);
-    const token = tokenMailedTo(email);
+    const token = await tokenMailedTo(email);
     const visitor = await anonymousAgent(app);
     const res = await visitor.post(`/api/invitations/token/${token}/accept`).send({ name: 'Wren', password: 'short' }).expect(400);
     expect(res.body.error.field).toBe('password');
@@ -91,9 +86,9 @@ describe('the invitation flow', () => {
     const admin = await signedInAgent(app, team.admin);
     const email = uniqueEmail('twice');
     await admin.post('/api/invitations').send({ email, name: 'Ola', role: 'viewer' }).expect(201);
-    const first = tokenMailedTo(email);
+    const first = await tokenMailedTo(email);
     const second = await admin.post('/api/invitations').send({ email, name: 'Ola', role: 'lead' }).expect(201);
-    const secondToken = tokenMailedTo(email);
+    const secondToken = await tokenMailedTo(email, 2);
     const visitor = await anonymousAgent(app);
     await visitor.get(`/api/invitations/token/${first}`).expect(404);
     expect((await visitor.get(`/api/invitations/token/${secondToken}`).expect(200)).body.role).toBe('lead');

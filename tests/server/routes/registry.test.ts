@@ -8,8 +8,8 @@ import { anonymousAgent, buildTeam, signedInAgent, uniqueEmail, useDatabase, typ
 
 useDatabase();
 
-/** Groups whose `:id` is a uuid (userParamsSchema, invitationParamsSchema). */
-const UUID_ID_PREFIXES = ['/api/users/', '/api/invitations/'];
+/** Groups whose `:id` is a uuid (userParamsSchema, invitationParamsSchema, outboxParamsSchema). */
+const UUID_ID_PREFIXES = ['/api/users/', '/api/invitations/', '/api/outbox/'];
 /** Well-formed ids that match no record: `:id` elsewhere is a positive integer (repositoryParamsSchema, idParamsSchema). */
 const MISSING_UUID = '00000000-0000-4000-8000-000000000000';
 const MISSING_INTEGER_ID = '2147483647';

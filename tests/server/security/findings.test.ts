@@ -8,15 +8,15 @@ import { createApp } from '../../../server/app';
 import { resolveSessionSecret } from '../../../server/auth/secret';
 import { SESSION_COOKIE } from '../../../server/auth/session';
 import { db } from '../../../server/db/connection';
-import { sentMail } from '../../../server/mail';
 import { CSRF_HEADER } from '../../../shared/api/session';
-import { TEST_PASSWORD, anonymousAgent, buildRepository, buildTeam, buildUser, signedInAgent, uniqueEmail, useDatabase } from '../../support';
+import { TEST_PASSWORD, anonymousAgent, buildRepository, buildTeam, buildUser, invitationTokenMailedTo, mailTo, signedInAgent, uniqueEmail, useDatabase, useMail } from '../../support';
 
 /**
  * One block per finding (2–9) of the hardening review: each test failed against the code before
  * the fix. Finding 1 (unbounded analysis) is covered with the analyzers.
  */
 useDatabase();
+useMail();
 
 let addressCounter = 0;
 /** A distinct IPv6 documentation address (RFC 3849) for each call in this file. */
@@ -93,7 +93,7 @@ describe('finding 2: sign-in limits cannot lock others out', () => {
     const admin = await signedInAgent(app, team.admin);
     const email = uniqueEmail('linked');
     await admin.post('/api/invitations').send({ email, name: 'Linked Person', role: 'viewer' }).expect(201);
-    const token = /\/invitations\/([A-Za-z0-9_-]{43})/.exec(sentMail(email).at(-1)!.text)![1];
+    const token = await invitationTokenMailedTo(email);
     const visitor = await anonymousAgent(app);
     for (let i = 0; i < 3; i += 1) {
       const guess = `${'A'.repeat(42)}${i}`;
@@ -259,10 +259,14 @@ describe('finding 6: invitations do not tell who has an account elsewhere', () =
     expect(b.status).toBe(201);
     expect(Object.keys(b.body).sort()).toEqual(Object.keys(a.body).sort());
     expect(b.body.acceptedAt).toBeNull();
-    const mail = sentMail(elsewhere.email).at(-1)!;
+    const [mail] = await mailTo(elsewhere.email);
     expect(mail.text).toMatch(/already has a Doublet account/);
     expect(mail.text).not.toMatch(/\/invitations\/[A-Za-z0-9_-]{43}/);
-    expect(sentMail(unknown).at(-1)!.text).toMatch(/\/invitations\/[A-Za-z0-9_-]{43}/);
+    const [invitation] = await mailTo(unknown);
+    expect(invitation.text).toMatch(/\/invitations\/[A-Za-z0-9_-]{43}/);
+    // The local catcher's Outbox shows the inviting admin the invitation, never the mail to the other organisation's member.
+    expect(invitation.organisationId).toBe(team.organisation.id);
+    expect(mail.organisationId).toBeNull();
   });
 });
 

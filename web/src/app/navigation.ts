@@ -17,6 +17,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { to: '/tasks', label: 'Tasks', action: 'tasks.read' },
   { to: '/api-tokens', label: 'API tokens', action: 'apiTokens.manage' },
   { to: '/admin', label: 'Admin', action: 'users.manage' },
+  { to: '/outbox', label: 'Outbox', action: 'outbox.read' },
 ];
 
 /**

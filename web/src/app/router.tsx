@@ -18,6 +18,7 @@ const AdminRoute = page(() => import('./routes/admin'), 'AdminRoute');
 const CloneClassRoute = page(() => import('./routes/clone-class'), 'CloneClassRoute');
 const CloneClassesRoute = page(() => import('./routes/clone-classes'), 'CloneClassesRoute');
 const FindCopiesRoute = page(() => import('./routes/find-copies'), 'FindCopiesRoute');
+const OutboxRoute = page(() => import('@/features/outbox/routes/outbox'), 'OutboxRoute');
 const OverviewRoute = page(() => import('./routes/overview'), 'OverviewRoute');
 const RepositoriesRoute = page(() => import('./routes/repositories'), 'RepositoriesRoute');
 const RepositoryRoute = page(() => import('./routes/repository'), 'RepositoryRoute');
@@ -82,6 +83,9 @@ export function AppRoutes() {
         </Route>
         <Route element={<RequireAction action="users.manage" />}>
           <Route path="admin" element={<AdminRoute />} />
+        </Route>
+        <Route element={<RequireAction action="outbox.read" />}>
+          <Route path="outbox" element={<OutboxRoute />} />
         </Route>
         <Route path="*" element={<NotFoundRoute />} />
       </Route>
