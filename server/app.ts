@@ -1,3 +1,4 @@
+import { isDatabaseUnavailable } from './db/unavailable';
 import fs from 'node:fs';
 import path from 'node:path';
 import cookieParser from 'cookie-parser';
@@ -161,6 +162,11 @@ const BODY_ERRORS: Record<string, { code: string; message: string }> = {
  * source code). Errors from Express and body-parser that carry a 4xx status keep it.
  */
 const errorHandler: ErrorRequestHandler = (error, _req, res, _next) => {
+  if (isDatabaseUnavailable(error)) {
+    // PostgreSQL is down or restarting: a temporary condition the pool recovers from by itself.
+    res.status(503).set('Retry-After', '5').json({ error: { code: 'database_unavailable', message: 'The database is unavailable right now; try again in a few seconds.' } });
+    return;
+  }
   if (error instanceof HttpError) {
     const retryAfter = (error as HttpError & { retryAfterSeconds?: number }).retryAfterSeconds;
     if (retryAfter !== undefined) res.set('Retry-After', String(retryAfter));

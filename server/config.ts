@@ -4,12 +4,15 @@ import { fileURLToPath } from 'node:url';
 /** Absolute path of the checkout; every project-local path hangs off it. */
 export const projectRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 
-function intFromEnv(name: string, fallback: number): number {
+function intFromEnv(name: string, fallback: number, { allowZero = false } = {}): number {
   const raw = process.env[name];
   if (raw === undefined || raw === '') return fallback;
   const value = Number(raw);
   // Plain digits only: Number() would also take "1e3", "0x10" or " 5 ".
-  if (!/^[1-9][0-9]*$/.test(raw) || !Number.isSafeInteger(value)) throw new Error(`${name} must be a positive integer, got "${raw}"`);
+  const digits = allowZero ? /^(0|[1-9][0-9]*)$/ : /^[1-9][0-9]*$/;
+  if (!digits.test(raw) || !Number.isSafeInteger(value)) {
+    throw new Error(`${name} must be a ${allowZero ? 'non-negative' : 'positive'} integer, got "${raw}"`);
+  }
   return value;
 }
 
@@ -41,8 +44,11 @@ export function loadConfig() {
   const dataDir = path.resolve(process.env.DOUBLET_DATA_DIR ?? path.join(projectRoot, '.data'));
   const databaseName = process.env.DOUBLET_DB_NAME ?? 'doublet';
   return {
-    port: intFromEnv('PORT', 3030),
+    /** 0 lets the system pick a free port (tests, benchmarks); the server prints the one it got. */
+    port: intFromEnv('PORT', 3030, { allowZero: true }),
     host: process.env.HOST ?? '127.0.0.1',
+    /** On SIGTERM/SIGINT, how long in-flight requests and background work may run before they are cut off. */
+    shutdownGraceMs: intFromEnv('SHUTDOWN_GRACE_MS', 10_000),
     /** When set, everything uses this server and the local cluster is never started. */
     externalDatabaseUrl: process.env.DATABASE_URL || undefined,
     pgPort,
@@ -72,7 +78,7 @@ export function loadConfig() {
     embeddedWorker: process.env.DOUBLET_EMBEDDED_WORKER !== 'false',
     /** PostgreSQL schema of the job queue's tables (pg-boss), in the app's database. */
     jobsSchema: identifierFromEnv('DOUBLET_JOBS_SCHEMA', 'pgboss'),
-    publicUrl: process.env.PUBLIC_URL ?? `http://127.0.0.1:${intFromEnv('PORT', 3030)}`,
+    publicUrl: process.env.PUBLIC_URL ?? `http://127.0.0.1:${intFromEnv('PORT', 3030, { allowZero: true })}`,
     mailFrom: process.env.MAIL_FROM ?? 'Doublet <doublet@localhost>',
     secureCookies: process.env.SECURE_COOKIES === 'true',
     /** Limits on uploaded archives and git trees, and the git cache (README, "Limits of uploads"). */

@@ -3,15 +3,21 @@ import { demoSignInLines, seedDemo } from './commands/seedDemo';
 import { seedDemoRepositories } from './commands/seedDemoRepositories';
 import { projectRoot } from './config';
 import { openDatabase } from './db';
-import { serve } from './index';
-import { startEmbedded } from './jobs';
+import { drainOnSignals, onShutdown, serve } from './index';
+import { startEmbedded, stopEmbedded } from './jobs';
 import { initModels } from './models';
 
-/** `npm start`: database up and migrated, demo data on an empty database, client built, then serve. */
+/**
+ * `npm start`: database up and migrated, demo data on an empty database, client built, then serve
+ * until SIGTERM or Ctrl-C, which drain in-flight requests first. The local cluster keeps running
+ * (`npm run db:stop` stops it).
+ */
 async function main() {
   const sequelize = await openDatabase();
   initModels(sequelize);
   await startEmbedded();
+  // Jobs in hand finish (or are left to be retried) after the HTTP requests, within the grace period.
+  onShutdown('jobs and the mail catcher', stopEmbedded);
   const seeded = await seedDemo();
   if (seeded) {
     console.log(`Seeding the demo organisation "${seeded.name}" with its repositories…`);
@@ -21,8 +27,13 @@ async function main() {
   else console.log('Demo sign-ins, if the demo organisation is still there (role, e-mail, password):');
   for (const line of demoSignInLines()) console.log(line);
   console.log('Building the client…');
+  const nodeEnv = process.env.NODE_ENV;
   await build({ configFile: `${projectRoot}/vite.config.ts`, logLevel: 'warn' });
-  await serve();
+  // vite's build() sets NODE_ENV=production in this process; whether the server runs in production
+  // (and so refuses a missing SESSION_SECRET) is the operator's setting, not the client build's.
+  if (nodeEnv === undefined) delete process.env.NODE_ENV;
+  else process.env.NODE_ENV = nodeEnv;
+  drainOnSignals(await serve());
 }
 
 main().catch((error: unknown) => {

@@ -53,7 +53,35 @@ function runPg(bin: string, args: string[]) {
   return { ok: result.status === 0, output: `${result.stdout ?? ''}${result.stderr ?? ''}`.trim() };
 }
 
-function ensureCluster(binDir: string, dataDir: string) {
+/** Where a cluster lives and how it listens: the project's own (from the configuration) or a test's throwaway one. */
+export interface ClusterOptions {
+  /** the cluster's data directory (created by initdb when missing) */
+  dataDir: string;
+  /** TCP port on 127.0.0.1 */
+  port: number;
+  /** server settings passed as `-c` flags at start; default: the development sizing below */
+  settings?: string[];
+}
+
+// Sized for the prefix index on a development machine: a 1M-set index (~2 GB of prefix rows and
+// their index) keeps its hot pages in shared buffers; no parallel workers or JIT for the many
+// short index-lookup queries; WAL roomy enough that a bulk load does not force checkpoints.
+const DEVELOPMENT_SETTINGS = [
+  'shared_buffers=1GB', 'work_mem=32MB', 'jit=off', 'max_parallel_workers_per_gather=0',
+  'max_wal_size=4GB', 'checkpoint_timeout=15min',
+];
+
+/** The project-local cluster: .data/postgres (DOUBLET_DATA_DIR) on DOUBLET_PG_PORT. */
+export function localCluster(): ClusterOptions {
+  const config = loadConfig();
+  return { dataDir: config.pgDataDir, port: config.pgPort };
+}
+
+/**
+ * Creates a cluster in `dataDir` with initdb (trust authentication, user postgres) unless one is
+ * there already. As root the directory is handed to the postgres system user first.
+ */
+export function initCluster(binDir: string, dataDir: string): void {
   if (fs.existsSync(path.join(dataDir, 'PG_VERSION'))) return;
   fs.mkdirSync(dataDir, { recursive: true });
   if (isRoot()) {
@@ -71,14 +99,51 @@ function ensureCluster(binDir: string, dataDir: string) {
   if (!init.ok) throw new Error(`initdb failed for ${dataDir}:\n${init.output}`);
 }
 
-function isRunning(binDir: string, dataDir: string): boolean {
+/** True when a postmaster runs on the cluster's data directory. */
+export function isClusterRunning(binDir: string, dataDir: string): boolean {
   return runPg(path.join(binDir, 'pg_ctl'), ['-D', dataDir, 'status']).ok;
+}
+
+/**
+ * Starts the cluster (creating it first when needed) on 127.0.0.1 only, its Unix socket inside the
+ * data directory; waits until it accepts connections. A no-op when it already runs.
+ *
+ * @example
+ * startCluster({ dataDir: '/tmp/pg-test/data', port: 55999, settings: ['shared_buffers=16MB'] });
+ */
+export function startCluster(cluster: ClusterOptions): void {
+  const binDir = ensurePostgresInstalled();
+  initCluster(binDir, cluster.dataDir);
+  if (isClusterRunning(binDir, cluster.dataDir)) return;
+  const settings = (cluster.settings ?? DEVELOPMENT_SETTINGS).map((s) => `-c ${s}`);
+  const start = runPg(path.join(binDir, 'pg_ctl'), [
+    '-D', cluster.dataDir, '-l', path.join(cluster.dataDir, 'server.log'), '-w', '-t', '60',
+    '-o', [`-h 127.0.0.1 -p ${cluster.port} -k ${cluster.dataDir}`, ...settings].join(' '), 'start',
+  ]);
+  if (!start.ok && !isClusterRunning(binDir, cluster.dataDir)) {
+    throw new Error(
+      `PostgreSQL did not start on 127.0.0.1:${cluster.port} (is the port taken? set DOUBLET_PG_PORT):\n${start.output}`,
+    );
+  }
+}
+
+/** Stops the cluster with pg_ctl's fast mode (open transactions roll back); a no-op when it is not running. */
+export function stopCluster(cluster: ClusterOptions): void {
+  const binDir = findPostgresBinaries();
+  if (!binDir || !fs.existsSync(path.join(cluster.dataDir, 'PG_VERSION'))) return;
+  if (!isClusterRunning(binDir, cluster.dataDir)) return;
+  const stop = runPg(path.join(binDir, 'pg_ctl'), ['-D', cluster.dataDir, '-m', 'fast', '-w', 'stop']);
+  if (!stop.ok) throw new Error(`pg_ctl stop failed:\n${stop.output}`);
+}
+
+/** Admin connection URL of a database on a local cluster listening on `port`. */
+export function clusterDatabaseUrl(port: number, database: string): string {
+  return `postgres://postgres@127.0.0.1:${port}/${database}`;
 }
 
 /** Admin connection URL of the local cluster for a database name. */
 export function localDatabaseUrl(database: string): string {
-  const { pgPort } = loadConfig();
-  return `postgres://postgres@127.0.0.1:${pgPort}/${database}`;
+  return clusterDatabaseUrl(loadConfig().pgPort, database);
 }
 
 /**
@@ -88,34 +153,18 @@ export function localDatabaseUrl(database: string): string {
 export async function ensureDatabaseServer(databaseName = loadConfig().databaseName): Promise<string> {
   const config = loadConfig();
   if (config.externalDatabaseUrl) return config.externalDatabaseUrl;
-  const binDir = ensurePostgresInstalled();
-  ensureCluster(binDir, config.pgDataDir);
-  if (!isRunning(binDir, config.pgDataDir)) {
-    const start = runPg(path.join(binDir, 'pg_ctl'), [
-      '-D', config.pgDataDir, '-l', path.join(config.pgDataDir, 'server.log'), '-w', '-t', '60',
-      // Sized for the prefix index on a development machine: a 1M-set index (~2 GB of prefix rows and
-      // their index) keeps its hot pages in shared buffers; no parallel workers or JIT for the many
-      // short index-lookup queries; WAL roomy enough that a bulk load does not force checkpoints.
-      '-o', [
-        `-h 127.0.0.1 -p ${config.pgPort} -k ${config.pgDataDir}`,
-        '-c shared_buffers=1GB -c work_mem=32MB -c jit=off -c max_parallel_workers_per_gather=0',
-        '-c max_wal_size=4GB -c checkpoint_timeout=15min',
-      ].join(' '), 'start',
-    ]);
-    if (!start.ok && !isRunning(binDir, config.pgDataDir)) {
-      throw new Error(
-        `PostgreSQL did not start on 127.0.0.1:${config.pgPort} (is the port taken? set DOUBLET_PG_PORT):\n${start.output}`,
-      );
-    }
-  }
+  startCluster(localCluster());
   await createDatabaseIfMissing(databaseName);
   return localDatabaseUrl(databaseName);
 }
 
-/** Creates a database on the local cluster when it does not exist yet. */
-export async function createDatabaseIfMissing(name: string): Promise<void> {
+/**
+ * Creates a database when it does not exist yet, on the local cluster or on the server of
+ * `adminUrl` (a URL of any database there that the user may create databases from).
+ */
+export async function createDatabaseIfMissing(name: string, adminUrl = localDatabaseUrl('postgres')): Promise<void> {
   if (!/^[a-z_][a-z0-9_]*$/.test(name)) throw new Error(`invalid database name "${name}"`);
-  const client = new pg.Client({ connectionString: localDatabaseUrl('postgres') });
+  const client = new pg.Client({ connectionString: adminUrl });
   await client.connect();
   try {
     const exists = await client.query('select 1 from pg_database where datname = $1', [name]);
@@ -125,10 +174,13 @@ export async function createDatabaseIfMissing(name: string): Promise<void> {
   }
 }
 
-/** Drops a database on the local cluster (used by the test run to clean up after itself). */
-export async function dropDatabase(name: string): Promise<void> {
+/**
+ * Drops a database, closing its connections first: on the local cluster, or on the server of
+ * `adminUrl` (used by the test run and benchmarks to clean up after themselves).
+ */
+export async function dropDatabase(name: string, adminUrl = localDatabaseUrl('postgres')): Promise<void> {
   if (!/^[a-z_][a-z0-9_]*$/.test(name)) throw new Error(`invalid database name "${name}"`);
-  const client = new pg.Client({ connectionString: localDatabaseUrl('postgres') });
+  const client = new pg.Client({ connectionString: adminUrl });
   await client.connect();
   try {
     await client.query(`drop database if exists ${name} with (force)`);
@@ -139,11 +191,6 @@ export async function dropDatabase(name: string): Promise<void> {
 
 /** Stops the local cluster when it runs; a no-op with DATABASE_URL. */
 export function stopDatabaseServer(): void {
-  const config = loadConfig();
-  if (config.externalDatabaseUrl) return;
-  const binDir = findPostgresBinaries();
-  if (!binDir || !fs.existsSync(path.join(config.pgDataDir, 'PG_VERSION'))) return;
-  if (!isRunning(binDir, config.pgDataDir)) return;
-  const stop = runPg(path.join(binDir, 'pg_ctl'), ['-D', config.pgDataDir, '-m', 'fast', '-w', 'stop']);
-  if (!stop.ok) throw new Error(`pg_ctl stop failed:\n${stop.output}`);
+  if (loadConfig().externalDatabaseUrl) return;
+  stopCluster(localCluster());
 }
