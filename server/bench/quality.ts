@@ -60,7 +60,7 @@ function printResult(title: string, result: MeasureResult): void {
     }
   }
 
-  console.log('\nRecall at the defaults (t = 0.8, shingle size 3) by the size of the original function, in tokens:\n');
+  console.log('\nRecall at t = 0.8 (the default before 0.7), shingle size 3, by the size of the original function, in tokens:\n');
   const buckets = SIZE_BUCKETS.map(([lo, hi]) => (hi === Infinity ? `${lo}+` : `${lo}-${hi}`));
   console.log(`| edit | ${buckets.join(' | ')} |`);
   console.log(`| --- | ${buckets.map(() => '---:').join(' | ')} |`);

@@ -153,13 +153,16 @@ describe('reviewing clones with Chromium', () => {
       await page.getByRole('button', { name: 'Find copies' }).click();
       await page.getByText('Paste some code.').waitFor();
 
+      // The threshold field starts at the default, so the search runs at 0.7 unless changed.
+      expect(await page.getByLabel('Threshold').inputValue()).toBe('0.7');
       await page.getByLabel('Code', { exact: true }).fill(PASTED_PRICING_RULE);
       await page.getByRole('button', { name: 'Find copies' }).click();
       const table = page.getByRole('table', { name: 'Copies found' });
       await table.waitFor();
       const rows = await table.locator('tbody tr').allInnerTexts();
       const found = rows.map((r) => r.split('\t').map((cell) => cell.trim()));
-      // Every copy is in the latest snapshot of the repository, at or above the default threshold.
+      // Every copy is in the latest snapshot of the repository. All of them reach 0.8, the old
+      // default, too: the lower default adds no copy of the pricing rule in the demo.
       expect(found.every((cells) => cells[1] === 'freight-platform@v3')).toBe(true);
       expect(found.every((cells) => Number(cells[0]) >= 0.8)).toBe(true);
       // The demo's v3 has the rule in billing (the original), the yard and the sales desk quotes.

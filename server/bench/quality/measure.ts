@@ -57,7 +57,7 @@ export interface KindResult {
   belowMinimum: Record<number, number>;
   /** `${shingleSize}:${threshold}` → counts. */
   cells: Record<string, Cell>;
-  /** Recall at the default threshold and shingle size by the original's size, `lo-hi` → [found, planted]. */
+  /** Recall at t = 0.8 (the default before 0.7) and the default shingle size by the original's size, `lo-hi` → [found, planted]. */
   bySize: Record<string, [number, number]>;
 }
 

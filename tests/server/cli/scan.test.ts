@@ -20,6 +20,13 @@ const PLANTED = [
   ['src/legacy/shift-bays.ts:allocateBaysForShift', 'src/yard/bays.ts:assignLoadingBays', 3],
 ] as const;
 
+/**
+ * The fixture was planted for t = 0.8: at 0.8 the three planted pairs are all it holds. The tests
+ * of the output formats name that threshold, so they keep testing the formats whatever the
+ * default; the default itself has its own test below.
+ */
+const AT_08 = ['--threshold', '0.8'];
+
 let dir: string;
 let report: CloneReport;
 let jsonRun: { code: number; stderr: string };
@@ -33,7 +40,7 @@ beforeAll(async () => {
   dir = fs.mkdtempSync(path.join(os.tmpdir(), 'doublet-scan-'));
   const io = captureIo();
   const out = path.join(dir, 'report.json');
-  const code = await run([FIXTURE, '--format', 'json', '--out', out], io);
+  const code = await run([FIXTURE, ...AT_08, '--format', 'json', '--out', out], io);
   jsonRun = { code, stderr: io.stderr() };
   report = JSON.parse(fs.readFileSync(out, 'utf8')) as CloneReport;
 });
@@ -70,7 +77,7 @@ describe('doublet scan', () => {
 
   it('writes SARIF 2.1.0: one result per class member, partners as related locations', async () => {
     const io = captureIo();
-    expect(await run([FIXTURE, '--format', 'sarif'], io)).toBe(0);
+    expect(await run([FIXTURE, ...AT_08, '--format', 'sarif'], io)).toBe(0);
     const sarif = JSON.parse(io.stdout());
     expect(sarif.version).toBe('2.1.0');
     expect(sarif.$schema).toMatch(/sarif-schema-2\.1\.0\.json$/);
@@ -97,7 +104,7 @@ describe('doublet scan', () => {
 
   it('prints a text summary, largest classes first', async () => {
     const io = captureIo();
-    expect(await run([FIXTURE], io)).toBe(0);
+    expect(await run([FIXTURE, ...AT_08], io)).toBe(0);
     const text = io.stdout();
     expect(text).toMatch(/clone ratio \d+\.\d%: [\d,]+ tokens in 3 clone pairs, 3 clone classes/);
     expect(text).toContain('src/yard/bays.ts:14-33  assignLoadingBays');
@@ -107,12 +114,35 @@ describe('doublet scan', () => {
   it('exits 1 when the clone ratio is above --budget, 0 at or under it', async () => {
     const ratio = report.stats.cloneRatio;
     const over = captureIo();
-    expect(await run([FIXTURE, '--format', 'json', '--budget', (Math.floor(ratio * 100) / 100).toFixed(2)], over)).toBe(1);
+    expect(await run([FIXTURE, ...AT_08, '--format', 'json', '--budget', (Math.floor(ratio * 100) / 100).toFixed(2)], over)).toBe(1);
     expect(over.stderr()).toMatch(/above the budget/);
     const under = captureIo();
-    expect(await run([FIXTURE, '--format', 'csv', '--budget', `${Math.ceil(ratio * 100)}%`], under)).toBe(0);
+    expect(await run([FIXTURE, ...AT_08, '--format', 'csv', '--budget', `${Math.ceil(ratio * 100)}%`], under)).toBe(0);
     expect(under.stdout().split('\r\n')[0]).toBe('class,similarity,type,file_a,name_a,start_line_a,end_line_a,file_b,name_b,start_line_b,end_line_b');
     expect(under.stdout().trim().split('\r\n')).toHaveLength(4);
+  });
+
+  it('uses the default settings without flags: t = 0.7 adds the one pair of a function with the callback it is made of', async () => {
+    const io = captureIo();
+    expect(await run([FIXTURE, '--format', 'json'], io)).toBe(0);
+    const atDefault = cloneReportSchema.parse(JSON.parse(io.stdout()));
+    // The default chosen from the detection-quality benchmark (README "Why 0.7").
+    expect(atDefault.settings).toMatchObject({ threshold: 0.7, minTokens: 50, shingleSize: 3 });
+    // Every pair at 0.8 is a pair at 0.7; the one more is parseGateLog with its forEach callback:
+    // the callback's tokens also count in the function around it, so its shingle set is a subset
+    // of the outer one and J = (inner tokens − 2) / (outer tokens − 2) for 3-token shingles,
+    // between 0.7 and 0.8.
+    const pairs = pairsByName(atDefault);
+    expect(pairs.slice(0, PLANTED.length)).toEqual(PLANTED);
+    expect(pairs).toHaveLength(PLANTED.length + 1);
+    const extra = atDefault.pairs[PLANTED.length]!;
+    const [outer, inner] = [extra.a, extra.b].map((id) => atDefault.fragments.find((f) => f.id === id)!).sort((x, y) => y.tokens - x.tokens);
+    expect([outer!.file, outer!.name, inner!.file]).toEqual(['src/yard/gate.js', 'parseGateLog', 'src/yard/gate.js']);
+    expect(inner!.startLine).toBeGreaterThan(outer!.startLine);
+    expect(inner!.endLine).toBeLessThan(outer!.endLine);
+    expect(extra.similarity).toBeCloseTo((inner!.tokens - 2) / (outer!.tokens - 2), 12);
+    expect(extra.similarity).toBeGreaterThanOrEqual(0.7);
+    expect(extra.similarity).toBeLessThan(0.8);
   });
 
   it('scans several folders at once, naming each by its folder', async () => {

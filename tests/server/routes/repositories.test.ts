@@ -39,7 +39,23 @@ describe('POST /api/repositories', () => {
   it('creates a repository with default settings for a lead', async () => {
     const team = await buildTeam();
     const res = await (await signedInAgent(app, team.lead)).post('/api/repositories').send({ name: 'wagon-yard' }).expect(201);
-    expect(res.body).toMatchObject({ name: 'wagon-yard', threshold: 0.8, minTokens: 50, shingleSize: 3, ignore: [], cloneBudget: null, latestSnapshot: null });
+    // 0.7: the default threshold chosen from the detection-quality benchmark (README "Why 0.7").
+    expect(res.body).toMatchObject({ name: 'wagon-yard', threshold: 0.7, minTokens: 50, shingleSize: 3, ignore: [], cloneBudget: null, latestSnapshot: null });
+  });
+
+  it('keeps the threshold stored in an existing repository when the default changes', async () => {
+    const team = await buildTeam();
+    // A repository created while the default was 0.8 has 0.8 stored, and keeps it.
+    const older = await buildRepository({ organisationId: team.organisation.id, threshold: 0.8 });
+    const viewer = await signedInAgent(app, team.viewer);
+    expect((await viewer.get(`/api/repositories/${older.id}`).expect(200)).body).toMatchObject({ threshold: 0.8 });
+    // A row written without a threshold (SQL, not the app) gets the new default from the column.
+    const [row] = await select<{ threshold: string }>(
+      undefined,
+      `insert into repositories (organisation_id, name) values ($1, 'raw-insert') returning threshold`,
+      [team.organisation.id],
+    );
+    expect(Number(row!.threshold)).toBe(0.7);
   });
 
   it('answers 400 naming the field for a threshold under the index threshold or a bad name', async () => {

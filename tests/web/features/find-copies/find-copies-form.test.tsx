@@ -47,6 +47,14 @@ describe('FindCopiesForm', () => {
     expect(onSubmit).toHaveBeenCalledExactlyOnceWith({ language: 'python', text, threshold: 0.85 });
   });
 
+  it('starts the threshold at the default, 0.7, and sends it when left as it is', () => {
+    const onSubmit = renderForm();
+    expect((threshold() as HTMLInputElement).value).toBe('0.7');
+    fireEvent.change(code(), { target: { value: 'function f() { return 1; }' } });
+    submit();
+    expect(onSubmit).toHaveBeenCalledExactlyOnceWith({ language: 'javascript', text: 'function f() { return 1; }', threshold: 0.7 });
+  });
+
   describe('edge cases', () => {
     it('leaves the threshold out when the field is emptied, so the server default applies', () => {
       const onSubmit = renderForm();

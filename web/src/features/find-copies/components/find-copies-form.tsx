@@ -1,6 +1,6 @@
 import { useState, type FormEvent } from 'react';
 import { SNIPPET_LANGUAGES, findCopiesSchema, type FindCopiesInput } from '@shared/api/find-copies';
-import { INDEX_MIN_THRESHOLD } from '@shared/constants';
+import { DEFAULT_REPOSITORY_SETTINGS, INDEX_MIN_THRESHOLD } from '@shared/constants';
 import { Button } from '@/components/button';
 import { SelectField, TextField } from '@/components/field';
 import { TextAreaField } from '@/components/textarea-field';
@@ -63,7 +63,7 @@ export function FindCopiesForm({
           step="0.01"
           min={INDEX_MIN_THRESHOLD}
           max={1}
-          defaultValue={0.8}
+          defaultValue={DEFAULT_REPOSITORY_SETTINGS.threshold}
           error={shown.threshold}
         />
       </div>
