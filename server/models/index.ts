@@ -15,6 +15,7 @@ import { SetPair, initSetPair } from './SetPair';
 import { CloneClass, initCloneClass } from './CloneClass';
 import { CloneClassMember, initCloneClassMember } from './CloneClassMember';
 import { SnapshotMetric, initSnapshotMetric } from './SnapshotMetric';
+import { ApiToken, initApiToken } from './ApiToken';
 
 export {
   Invitation,
@@ -33,6 +34,7 @@ export {
   CloneClass,
   CloneClassMember,
   SnapshotMetric,
+  ApiToken,
 };
 
 const initialised = new WeakSet<Sequelize>();
@@ -62,6 +64,7 @@ export function initModels(sequelize: Sequelize): void {
   initCloneClass(sequelize);
   initCloneClassMember(sequelize);
   initSnapshotMetric(sequelize);
+  initApiToken(sequelize);
 
   Organisation.hasMany(User, { foreignKey: 'organisationId', as: 'users' });
   User.belongsTo(Organisation, { foreignKey: 'organisationId', as: 'organisation' });

@@ -11,6 +11,7 @@ import { cloneClassRoutes } from './clone-classes';
 import { findCopiesRoutes } from './find-copies';
 import { repositoryRoutes } from './repositories';
 import { snapshotRoutes } from './snapshots';
+import { apiTokenRoutes } from './tokens';
 
 /** Every resource's routes. Add new router files here; tests read this list. */
 export const ROUTE_GROUPS: RouteGroup[] = [
@@ -22,6 +23,7 @@ export const ROUTE_GROUPS: RouteGroup[] = [
   snapshotRoutes,
   cloneClassRoutes,
   findCopiesRoutes,
+  apiTokenRoutes,
 ];
 
 /** Every declared API route with its full path and guard (what the route × role tests enumerate). */
@@ -49,7 +51,7 @@ export function buildApiRouter(): express.Router {
           next(fromDatabaseError(error));
         }
       };
-      router[route.method](path, guardMiddleware(route.guard), csrf, handler);
+      router[route.method](path, guardMiddleware(route.guard, route.token), csrf, handler);
     }
   }
 
