@@ -3,6 +3,7 @@ import { SignInRoute } from '@/features/auth/routes/sign-in';
 import { RequireAction, SignedInFrame } from './guards';
 import { AcceptInvitationRoute } from './routes/accept-invitation';
 import { AccountRoute } from './routes/account';
+import { ApiTokensRoute } from './routes/api-tokens';
 import { AdminRoute } from './routes/admin';
 import { CloneClassRoute } from './routes/clone-class';
 import { CloneClassesRoute } from './routes/clone-classes';
@@ -49,10 +50,7 @@ export function AppRoutes() {
           <Route path="tasks" element={<PlaceholderRoute title="Tasks" description="Refactor work on clone classes, with owners." />} />
         </Route>
         <Route element={<RequireAction action="apiTokens.manage" />}>
-          <Route
-            path="api-tokens"
-            element={<PlaceholderRoute title="API tokens" description="Tokens for CI to upload snapshots and check clone budgets." />}
-          />
+          <Route path="api-tokens" element={<ApiTokensRoute />} />
         </Route>
         <Route element={<RequireAction action="users.manage" />}>
           <Route path="admin" element={<AdminRoute />} />
