@@ -54,7 +54,8 @@ describe('signing in with Chromium', () => {
       try {
         await signIn(page, team[role]);
         expect(await navLabels(page)).toEqual(EXPECTED_NAV[role]);
-        await expect(page.getByRole('heading', { name: 'Overview' }).isVisible()).resolves.toBe(true);
+        // Pages load on first visit (one chunk a route): wait for the overview's own heading.
+        await page.getByRole('heading', { name: 'Overview' }).waitFor();
 
         // The Admin page is there for admins; others get the refusal page even by URL.
         await page.goto(`${session.baseUrl}/admin`, { waitUntil: 'networkidle' });

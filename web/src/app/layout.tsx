@@ -1,3 +1,4 @@
+import { Suspense } from 'react';
 import { NavLink, Outlet, useNavigate } from 'react-router-dom';
 import clsx from 'clsx';
 import type { SessionDTO } from '@shared/api/session';
@@ -65,7 +66,16 @@ export function AppLayout({ session }: { session: SessionDTO & { user: NonNullab
         </div>
       </aside>
       <main className="min-w-0 flex-1 px-8 py-6">
-        <Outlet />
+        {/* Pages are loaded on first visit; the navigation stays while one arrives. */}
+        <Suspense
+          fallback={
+            <p className="text-sm text-muted" role="status">
+              Loading…
+            </p>
+          }
+        >
+          <Outlet />
+        </Suspense>
       </main>
     </div>
   );

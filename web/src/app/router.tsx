@@ -1,18 +1,37 @@
+import { Suspense, lazy, type ComponentType } from 'react';
 import { BrowserRouter, Link, Route, Routes } from 'react-router-dom';
 import { SignInRoute } from '@/features/auth/routes/sign-in';
 import { RequireAction, SignedInFrame } from './guards';
-import { AcceptInvitationRoute } from './routes/accept-invitation';
-import { AccountRoute } from './routes/account';
-import { ApiTokensRoute } from './routes/api-tokens';
-import { AdminRoute } from './routes/admin';
-import { CloneClassRoute } from './routes/clone-class';
-import { CloneClassesRoute } from './routes/clone-classes';
-import { FindCopiesRoute } from './routes/find-copies';
-import { OverviewRoute } from './routes/overview';
 import { PlaceholderRoute } from './routes/placeholder';
-import { RepositoriesRoute } from './routes/repositories';
-import { RepositoryRoute } from './routes/repository';
-import { SnapshotRoute } from './routes/snapshot';
+
+/**
+ * A page loaded on first visit: each route is its own chunk, so charts (recharts) and the code
+ * highlighter (shiki and its grammars) are fetched only by the pages that show them.
+ */
+function page<K extends string>(load: () => Promise<Record<K, ComponentType>>, name: K) {
+  return lazy(() => load().then((module) => ({ default: module[name] })));
+}
+
+const AcceptInvitationRoute = page(() => import('./routes/accept-invitation'), 'AcceptInvitationRoute');
+const AccountRoute = page(() => import('./routes/account'), 'AccountRoute');
+const AdminRoute = page(() => import('./routes/admin'), 'AdminRoute');
+const ApiTokensRoute = page(() => import('./routes/api-tokens'), 'ApiTokensRoute');
+const CloneClassRoute = page(() => import('./routes/clone-class'), 'CloneClassRoute');
+const CloneClassesRoute = page(() => import('./routes/clone-classes'), 'CloneClassesRoute');
+const FindCopiesRoute = page(() => import('./routes/find-copies'), 'FindCopiesRoute');
+const OverviewRoute = page(() => import('./routes/overview'), 'OverviewRoute');
+const RepositoriesRoute = page(() => import('./routes/repositories'), 'RepositoriesRoute');
+const RepositoryRoute = page(() => import('./routes/repository'), 'RepositoryRoute');
+const SnapshotRoute = page(() => import('./routes/snapshot'), 'SnapshotRoute');
+
+/** Where a page outside the layout waits for its chunk (signed-in pages wait inside the layout). */
+function PageLoading() {
+  return (
+    <p className="p-8 text-sm text-muted" role="status">
+      Loading…
+    </p>
+  );
+}
 
 function NotFoundRoute() {
   return (
@@ -30,7 +49,14 @@ export function AppRoutes() {
   return (
     <Routes>
       <Route path="/sign-in" element={<SignInRoute />} />
-      <Route path="/invitations/:token" element={<AcceptInvitationRoute />} />
+      <Route
+        path="/invitations/:token"
+        element={
+          <Suspense fallback={<PageLoading />}>
+            <AcceptInvitationRoute />
+          </Suspense>
+        }
+      />
       <Route element={<SignedInFrame />}>
         <Route index element={<OverviewRoute />} />
         <Route path="account" element={<AccountRoute />} />

@@ -41,8 +41,9 @@ describe('ClassMembers', () => {
     expect(within(sideOf('Left')).getByText('changed since last release')).toBeTruthy();
     expect(within(sideOf('Right')).queryByText('changed since last release')).toBeNull();
     expect(within(sideOf('Left')).getByText('yard/b.js:10–12', { exact: false })).toBeTruthy();
-    const gutter = within(sideOf('Right')).getByRole('region').querySelector('[aria-hidden="true"]')!;
-    expect(gutter.textContent).toBe('101112');
+    // One number a row, kept out of the accessible text and of selections.
+    const gutter = within(sideOf('Right')).getByRole('region').querySelectorAll('pre [aria-hidden="true"]');
+    expect([...gutter].map((n) => n.textContent).join(' ')).toBe('10 11 12');
   });
 
   it('says so when the two chosen members have no pair of their own', () => {
@@ -50,6 +51,23 @@ describe('ClassMembers', () => {
     fireEvent.change(screen.getByLabelText('Left'), { target: { value: '0' } });
     expect(sideOf('Left').getAttribute('aria-label')).toBe('Left: yard/a.js');
     expect(screen.getByRole('status', { name: 'Pair shown' }).textContent).toMatch(/No direct pair/);
+  });
+
+  it('shows every pair in a matrix, a dash for members joined only through others, and opens the pair a cell names', () => {
+    render(<ClassMembers detail={THREE} />);
+    const matrix = screen.getByRole('table', { name: 'Similarity of every pair' });
+    const cell = (from: string, to: string) => within(matrix).getByRole('button', { name: new RegExp(`^Compare ${from} \\(.*\\) and ${to} \\(`) });
+    expect(cell('grossA', 'grossB').textContent).toBe('0.850');
+    expect(cell('grossC', 'grossB').textContent).toBe('0.900');
+    expect(cell('grossA', 'grossC').textContent).toBe('—');
+    expect(cell('grossA', 'grossC').getAttribute('aria-label')).toMatch(/no direct pair$/);
+    expect(cell('grossB', 'grossC').getAttribute('aria-pressed')).toBe('true');
+    fireEvent.click(cell('grossC', 'grossA'));
+    expect(sideOf('Left').getAttribute('aria-label')).toBe('Left: yard/cc.js');
+    expect(sideOf('Right').getAttribute('aria-label')).toBe('Right: yard/a.js');
+    expect(screen.getByRole('status', { name: 'Pair shown' }).textContent).toMatch(/No direct pair/);
+    expect(cell('grossA', 'grossC').getAttribute('aria-pressed')).toBe('true');
+    expect(cell('grossB', 'grossC').getAttribute('aria-pressed')).toBe('false');
   });
 
   describe('edge cases', () => {
@@ -63,6 +81,7 @@ describe('ClassMembers', () => {
     it('shows two members without a chooser', () => {
       render(<ClassMembers detail={detail([member('a.js', 'f', false), member('b.js', 'g', false)], [{ a: 0, b: 1, similarity: 1, type: 1 }])} />);
       expect(screen.queryByLabelText('Left')).toBeNull();
+      expect(screen.queryByRole('table', { name: 'Similarity of every pair' })).toBeNull();
       expect(screen.getAllByRole('article')).toHaveLength(2);
       expect(screen.getByRole('status', { name: 'Pair shown' }).textContent).toContain('type 1');
     });

@@ -2,7 +2,8 @@ import { useState } from 'react';
 import type { CloneClassDetailDTO, CloneClassMemberDTO, CloneClassPairDTO } from '@shared/api/snapshots';
 import { SelectField } from '@/components/field';
 import { formatLocation, formatSimilarity } from '@/lib/format';
-import { CodeView } from './code-view';
+import { PairView } from './pair-view';
+import { SimilarityMatrix } from './similarity-matrix';
 
 const TYPE_NAMES: Record<1 | 2 | 3, string> = {
   1: 'type 1 · identical tokens',
@@ -19,37 +20,10 @@ function memberLabel(member: CloneClassMemberDTO): string {
   return `${member.name} — ${formatLocation(member.path, member.startLine, member.endLine)}`;
 }
 
-function MemberColumn({ member, side }: { member: CloneClassMemberDTO; side: string }) {
-  return (
-    <article aria-label={`${side}: ${member.path}`} className="min-w-0 rounded-sm border border-line bg-panel">
-      <header className="space-y-0.5 px-3 py-2">
-        <div className="flex items-center justify-between gap-2">
-          <span className="truncate font-mono text-sm font-semibold" title={member.name}>
-            {member.name}
-          </span>
-          {/* No opposite label: the API's `changed` is also false for a member that is new in this release. */}
-          {member.changed ? (
-            <span className="shrink-0 rounded-sm bg-amber-soft px-1.5 py-0.5 font-mono text-[11px] leading-none text-amber" title="Its code differs from the previous snapshot">
-              changed since last release
-            </span>
-          ) : null}
-        </div>
-        <div className="truncate font-mono text-xs text-muted" title={formatLocation(member.path, member.startLine, member.endLine)}>
-          {formatLocation(member.path, member.startLine, member.endLine)}
-          <span className="ml-2">
-            {member.kind} · {member.tokens} tokens
-          </span>
-        </div>
-      </header>
-      <CodeView code={member.code} startLine={member.startLine} label={`Code of ${member.name} in ${member.path}`} />
-    </article>
-  );
-}
-
 /**
- * Two members of a class side by side, with the similarity of their pair. Classes with more than
- * two members get a chooser for each side; two members that are only connected through others
- * have no pair of their own, and the view says so.
+ * Two members of a class side by side, with the similarity of their pair and what differs marked.
+ * Classes with more than two members get a matrix of every pair and a chooser for each side; two
+ * members that are only connected through others have no pair of their own, and the view says so.
  */
 export function ClassMembers({ detail }: { detail: CloneClassDetailDTO }) {
   const { members, pairs } = detail;
@@ -68,8 +42,21 @@ export function ClassMembers({ detail }: { detail: CloneClassDetailDTO }) {
     setRight(i);
   };
 
+  const open = (a: number, b: number) => {
+    setLeft(a);
+    setRight(b);
+  };
+
   return (
     <div className="space-y-3">
+      {members.length > 2 ? (
+        <section aria-labelledby="similarity-matrix-title" className="rounded-sm border border-line bg-panel px-4 py-3">
+          <h2 id="similarity-matrix-title" className="mb-2 text-xs font-semibold tracking-wide text-muted uppercase">
+            Every pair
+          </h2>
+          <SimilarityMatrix detail={detail} selected={[left, right]} onOpen={open} />
+        </section>
+      ) : null}
       {members.length > 2 ? (
         <div className="grid gap-3 md:grid-cols-2">
           <SelectField label="Left" value={left} onChange={(e) => pickLeft(Number(e.target.value))}>
@@ -98,10 +85,9 @@ export function ClassMembers({ detail }: { detail: CloneClassDetailDTO }) {
           <span className="text-muted">No direct pair: these two are in one class through other members.</span>
         )}
       </div>
-      <div className="grid gap-3 lg:grid-cols-2">
-        {members[left] ? <MemberColumn member={members[left]} side="Left" /> : null}
-        {members[right] && right !== left ? <MemberColumn member={members[right]} side="Right" /> : null}
-      </div>
+      {members[left] && members[right] && right !== left ? (
+        <PairView left={members[left]} right={members[right]} language={detail.language} />
+      ) : null}
     </div>
   );
 }

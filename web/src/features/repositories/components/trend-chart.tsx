@@ -60,6 +60,29 @@ export function TrendChartView({ metrics, height = 220 }: { metrics: RepositoryM
       <figcaption className="mt-1 text-xs text-muted">
         Share of fragment tokens inside at least one clone pair, per release{budget !== null ? '; dashed: the clone budget' : ''}.
       </figcaption>
+      {/* The chart's text alternative: the same figures, readable without the picture. */}
+      <details className="mt-1 text-xs">
+        <summary className="cursor-pointer text-accent-strong focus-visible:outline-2 focus-visible:outline-accent">Figures as a table</summary>
+        <table className="mt-1 font-mono" aria-label="Clone ratio by release, as a table">
+          <thead>
+            <tr className="text-left text-muted">
+              <th className="pr-4 font-semibold">Release</th>
+              <th className="pr-4 text-right font-semibold">Clone ratio</th>
+              <th className="text-right font-semibold">Classes</th>
+            </tr>
+          </thead>
+          <tbody>
+            {metrics.points.map((p) => (
+              <tr key={p.snapshotId}>
+                <td className="pr-4">{p.label}</td>
+                <td className="pr-4 text-right tabular-nums">{formatPercent(p.cloneRatio)}</td>
+                <td className="text-right tabular-nums">{p.classCount}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        {budget !== null ? <p className="mt-1 text-muted">Clone budget: {formatPercent(metrics.cloneBudget)}.</p> : null}
+      </details>
     </figure>
   );
 }
