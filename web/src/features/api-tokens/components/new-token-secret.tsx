@@ -1,7 +1,6 @@
 import { useState } from 'react';
 import type { CreatedApiTokenDTO } from '@shared/api/tokens';
 import { Button } from '@/components/button';
-import { Notice } from '@/components/notice';
 
 /**
  * The secret of a token just created, shown this once with a copy button. It lives only in this
@@ -16,9 +15,11 @@ export function NewTokenSecret({ created, onDone }: { created: CreatedApiTokenDT
     );
   return (
     <div className="space-y-3">
-      <Notice tone="warning">
-        Copy this token now. It will not be shown again: Doublet keeps only a hash of it. If you lose it, revoke it and create a new one.
-      </Notice>
+      {/* Ink on the amber ground: the warning tone's amber text is too faint for a message this important. */}
+      <p className="rounded-sm border border-amber/40 bg-amber-soft px-3 py-2 text-sm text-ink">
+        <strong>Copy this token now. It will not be shown again:</strong> Doublet keeps only a hash of it. If you lose it, revoke it and
+        create a new one.
+      </p>
       <p className="text-sm">
         Token <span className="font-semibold">{created.apiToken.name}</span> for <span className="font-mono">{created.apiToken.repositoryName}</span>:
       </p>
