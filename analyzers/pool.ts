@@ -6,6 +6,7 @@ import { inspectFile, type SkipOptions } from './skip';
 import type { AnalyzeOptions, FileAnalysis, SkippedFile, SourceFile } from './types';
 import type { AnalyzeTask } from './worker-task';
 import { resolveOptions } from './fragments';
+import { workerUrl } from './worker-location';
 
 /** Options of analyzeFiles: analysis, skipping, and the pool. */
 export interface AnalyzeFilesOptions extends AnalyzeOptions, SkipOptions {
@@ -17,9 +18,6 @@ export interface AnalyzeFilesOptions extends AnalyzeOptions, SkipOptions {
 
 /** Default per-file time limit: far above what a file under the size cap needs (bench:analyze). */
 export const DEFAULT_TIMEOUT_MS = 20_000;
-
-/** The pool threads' entry (worker.mjs), shared by analyzeFiles and the snippet pool. */
-export const WORKER_URL = new URL('./worker.mjs', import.meta.url);
 
 /**
  * V8 heap limits of a pool thread. The young generation is larger than V8's default (about 48 MB,
@@ -74,7 +72,7 @@ export async function analyzeFiles(
 
   const threads = Math.max(1, Math.min(workers ?? os.availableParallelism(), tasks.length));
   const pool = new Piscina({
-    filename: WORKER_URL.href,
+    filename: workerUrl().href,
     minThreads: threads,
     maxThreads: threads,
     // Each file is its own task with its own abort signal: abortable tasks never share a thread.

@@ -1,9 +1,10 @@
 import os from 'node:os';
 import { Piscina } from 'piscina';
 import type { AnalysisLimit } from './limits';
-import { DEFAULT_TIMEOUT_MS, runTimed, WORKER_URL, type TimedRun } from './pool';
+import { DEFAULT_TIMEOUT_MS, runTimed, type TimedRun } from './pool';
 import type { AnalyzeOptions, Fragment } from './types';
 import type { SnippetTask } from './worker-task';
+import { workerUrl } from './worker-location';
 
 /** Options of analyzeSnippetInPool. */
 export interface SnippetPoolOptions extends AnalyzeOptions {
@@ -44,7 +45,7 @@ function threads(): number {
 
 function snippetPool(): Piscina {
   pool ??= new Piscina({
-    filename: WORKER_URL.href,
+    filename: workerUrl().href,
     minThreads: 1,
     maxThreads: threads(),
     // Each snippet is its own abortable task; abortable tasks never share a thread.

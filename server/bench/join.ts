@@ -9,7 +9,7 @@ import { JOIN_METHODS, newJoinStats, selfJoin, type JoinMethod, type JoinProfile
 import { rankIntegerSets, rankShingles } from '../matching/order';
 import { parseThreshold } from '../matching/threshold';
 import { formatCount, formatMs } from './format';
-import { random, RELABEL, VOCABULARY, ZIPF_TABLE, zipfTable } from './synthetic';
+import { generateCollection } from './synthetic';
 
 /**
  * `npm run bench:join [-- --sizes 10000,20000 --threshold 0.8 --seed 7 --methods prefix,auto]`: the
@@ -39,46 +39,6 @@ import { random, RELABEL, VOCABULARY, ZIPF_TABLE, zipfTable } from './synthetic'
 const DEFAULT_SIZES = [10_000, 20_000, 100_000, 1_000_000];
 /** Beyond these sizes a method takes minutes (it is quadratic in the sets of similar size). */
 const QUADRATIC_LIMIT = 20_000;
-
-/**
- * The synthetic collection: `count` sets of token ids (not yet ranked). Token ids are scrambled
- * against their frequency rank so that the rarest-first ranking has real work to do.
- */
-function generateCollection(count: number, seed: number): Int32Array[] {
-  const next = random(seed);
-  const table = zipfTable();
-  const stamp = new Int32Array(VOCABULARY).fill(-1);
-  const sets: Int32Array[] = new Array(count);
-  const draw = () => Math.imul(table[(next() * ZIPF_TABLE) | 0], RELABEL) & (VOCABULARY - 1);
-  for (let s = 0; s < count; s++) {
-    if (s > 10 && next() < 0.1) {
-      // planted near-duplicate of an earlier set
-      const source = sets[Math.floor(next() * s)];
-      const edits = Math.floor(next() * 0.15 * source.length);
-      const copy = Array.from(source);
-      for (let e = 0; e < edits; e++) {
-        const at = Math.floor(next() * copy.length);
-        if (next() < 0.5) copy.splice(at, 1);
-        else copy[at] = draw();
-      }
-      sets[s] = Int32Array.from(new Set(copy));
-      continue;
-    }
-    // log-normal size: median 80, sigma 0.7 (Box–Muller), clamped to 20..3000
-    const gauss = Math.sqrt(-2 * Math.log(1 - next())) * Math.cos(2 * Math.PI * next());
-    const size = Math.max(20, Math.min(3000, Math.round(80 * Math.exp(0.7 * gauss))));
-    const set = new Int32Array(size);
-    let filled = 0;
-    for (let attempt = 0; filled < size && attempt < size * 8; attempt++) {
-      const token = draw();
-      if (stamp[token] === s) continue;
-      stamp[token] = s;
-      set[filled++] = token;
-    }
-    sets[s] = filled === size ? set : set.slice(0, filled);
-  }
-  return sets;
-}
 
 interface CellResult {
   size: number;

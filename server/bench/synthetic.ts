@@ -149,3 +149,44 @@ function shingleStrings(tokens: number[]): string[] {
     return n === 1 ? `s${t}` : `s${t}#${n}`;
   });
 }
+
+/**
+ * The join benchmarks' synthetic collection (bench:join, bench:cli; described in join.ts): `count`
+ * sets of token ids (not yet ranked). Token ids are scrambled
+ * against their frequency rank so that the rarest-first ranking has real work to do.
+ */
+export function generateCollection(count: number, seed: number): Int32Array[] {
+  const next = random(seed);
+  const table = zipfTable();
+  const stamp = new Int32Array(VOCABULARY).fill(-1);
+  const sets: Int32Array[] = new Array(count);
+  const draw = () => Math.imul(table[(next() * ZIPF_TABLE) | 0], RELABEL) & (VOCABULARY - 1);
+  for (let s = 0; s < count; s++) {
+    if (s > 10 && next() < 0.1) {
+      // planted near-duplicate of an earlier set
+      const source = sets[Math.floor(next() * s)];
+      const edits = Math.floor(next() * 0.15 * source.length);
+      const copy = Array.from(source);
+      for (let e = 0; e < edits; e++) {
+        const at = Math.floor(next() * copy.length);
+        if (next() < 0.5) copy.splice(at, 1);
+        else copy[at] = draw();
+      }
+      sets[s] = Int32Array.from(new Set(copy));
+      continue;
+    }
+    // log-normal size: median 80, sigma 0.7 (Box–Muller), clamped to 20..3000
+    const gauss = Math.sqrt(-2 * Math.log(1 - next())) * Math.cos(2 * Math.PI * next());
+    const size = Math.max(20, Math.min(3000, Math.round(80 * Math.exp(0.7 * gauss))));
+    const set = new Int32Array(size);
+    let filled = 0;
+    for (let attempt = 0; filled < size && attempt < size * 8; attempt++) {
+      const token = draw();
+      if (stamp[token] === s) continue;
+      stamp[token] = s;
+      set[filled++] = token;
+    }
+    sets[s] = filled === size ? set : set.slice(0, filled);
+  }
+  return sets;
+}

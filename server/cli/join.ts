@@ -2,7 +2,8 @@ import { readFile } from 'node:fs/promises';
 import { parseArgs } from 'node:util';
 import { DEFAULT_REPOSITORY_SETTINGS } from '../../shared/constants';
 import { JOIN_METHODS, jaccard, newJoinStats, selfJoin, type JoinMethod } from '../matching/join';
-import { rankIntegerSets } from '../matching/order';
+import { rankFlatIntegerSets } from '../matching/order';
+import { parseSetBytes, SetSyntaxError, type FlatSets } from '../matching/set-bytes';
 import { parseThreshold, type Threshold } from '../matching/threshold';
 import { elapsed, guarded, InputError, processIo, UsageError, type CommandIo } from './command';
 
@@ -13,35 +14,27 @@ Prints every pair with Jaccard similarity ≥ T (default ${DEFAULT_REPOSITORY_SE
 line numbers i < j; counts and times go to stderr. --algorithm is the old name of --method.
 `;
 
-const MAX_TOKEN = 0x7fffffff;
-
 /**
- * Parses the join input: one set per line, tokens separated by spaces or tabs. A final newline
- * does not start another set; an empty line is an empty set (it pairs with nothing).
+ * Parses the join input (see parseSetBytes): one set per line, tokens separated by spaces or tabs.
+ * A final newline does not start another set; an empty line is an empty set (it pairs with
+ * nothing). The command line reads bytes; this string form is for callers that hold text.
  *
  * @example parseSetLines('3 1 3\n\n7\n', 'sets.txt') // [[3, 1, 3], [], [7]]
  * @throws InputError naming the file, the 1-based line (and the 0-based set number) and the bad token
  */
 export function parseSetLines(text: string, source: string): number[][] {
-  const lines = text.split(/\r?\n/);
-  if (lines.length > 0 && lines[lines.length - 1] === '') lines.pop();
-  const sets: number[][] = new Array(lines.length);
-  for (let n = 0; n < lines.length; n++) {
-    const trimmed = lines[n].trim();
-    const set: number[] = [];
-    if (trimmed !== '') {
-      for (const token of trimmed.split(/[ \t]+/)) {
-        const value = /^\d{1,10}$/.test(token) ? Number(token) : NaN;
-        if (!(value <= MAX_TOKEN)) {
-          const shown = token.length > 20 ? `${token.slice(0, 20)}…` : token;
-          throw new InputError(`${source} line ${n + 1} (set ${n}): "${shown}" is not an integer in 0..${MAX_TOKEN}`);
-        }
-        set.push(value);
-      }
-    }
-    sets[n] = set;
+  const { tokens, offsets } = parseInput(Buffer.from(text, 'utf8'), source);
+  return Array.from({ length: offsets.length - 1 }, (_, s) => Array.from(tokens.subarray(offsets[s], offsets[s + 1])));
+}
+
+/** parseSetBytes with its error named after the input file. */
+function parseInput(bytes: Uint8Array, source: string): FlatSets {
+  try {
+    return parseSetBytes(bytes);
+  } catch (error) {
+    if (error instanceof SetSyntaxError) throw new InputError(`${source} ${error.message}`);
+    throw error;
   }
-  return sets;
 }
 
 /**
@@ -93,17 +86,18 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
     const method = parseMethod(values.method ?? values.algorithm);
 
     let start = performance.now();
-    let text: string;
+    let bytes: Buffer;
     try {
-      text = await readFile(values.input, 'utf8');
+      bytes = await readFile(values.input);
     } catch (error) {
       throw new InputError(`cannot read ${values.input}: ${(error as NodeJS.ErrnoException).code ?? (error as Error).message}`);
     }
-    const sets = parseSetLines(text, values.input);
+    const sets = parseInput(bytes, values.input);
+    const count = sets.offsets.length - 1;
     const readMs = elapsed(start);
 
     start = performance.now();
-    const { ranked } = rankIntegerSets(sets);
+    const { ranked } = rankFlatIntegerSets(sets);
     const rankMs = elapsed(start);
 
     start = performance.now();
@@ -123,7 +117,7 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
     }
     const writeMs = elapsed(start);
     io.err(
-      `sets ${sets.length}, method ${method}, threshold ${t.p}/${t.q}: ` +
+      `sets ${count}, method ${method}, threshold ${t.p}/${t.q}: ` +
         `candidates ${stats.candidates}, verified ${stats.verified}, results ${stats.results}\n` +
         `times: read ${readMs} ms, rank ${rankMs} ms, join ${joinMs} ms, write ${writeMs} ms\n`,
     );

@@ -1,9 +1,10 @@
 import type { Transaction } from 'sequelize';
 import { compareClasses, fragmentKey, occurrences, type FragmentIdentity } from '../clone-index/compare';
+import { assignLineages } from '../clone-index/lineage';
 import { repositoryThreshold, type RepositorySettings } from '../clone-index/options';
 import { clonePairsAcross, clonePairsWithin, snapshotFragments, type SnapshotFragment } from '../clone-index/snapshot-pairs';
 import { cloneClasses, clonedTokens } from '../matching/classes';
-import { classMemberIds } from '../queries/classes';
+import { classLineageIds, classMemberIds } from '../queries/classes';
 import { insertSnapshotMetrics, previousReadySnapshot } from '../queries/snapshots';
 import { storeClasses } from '../queries/write-classes';
 import { classStats } from '../reports/class-stats';
@@ -18,8 +19,9 @@ export interface DerivedClones {
 
 /**
  * The step of a load after its files are stored: the snapshot's clone pairs (from stored set
- * pairs, at the repository's threshold), its classes compared with the previous ready snapshot's,
- * its clone ratio and figures, all written in the load's transaction.
+ * pairs, at the repository's threshold), its classes compared with the previous ready snapshot's
+ * and linked to their lineages (server/clone-index/lineage.ts), its clone ratio and figures, all
+ * written in the load's transaction.
  */
 export async function deriveClones(tx: Transaction, snapshotId: number, repository: RepositorySettings & { id: number }): Promise<DerivedClones> {
   const t = repositoryThreshold(repository);
@@ -33,6 +35,10 @@ export async function deriveClones(tx: Transaction, snapshotId: number, reposito
   const mine = identities(fragments);
   const previous = await previousClasses(tx, repository.id, snapshotId);
   const comparison = compareClasses(classes.map((c) => c.map((i) => mine[i])), previous.classes, previous.fragments);
+  const lineages = assignLineages(
+    previous.classes.map((members, p) => ({ lineageId: previous.lineageIds[p], members: members.map(fragmentKey) })),
+    classes.map((members) => members.map((i) => fragmentKey(mine[i]))),
+  );
 
   const stats = classStats(fragments.length, classes, pairs);
   await storeClasses(
@@ -45,6 +51,7 @@ export async function deriveClones(tx: Transaction, snapshotId: number, reposito
       language: fragments[members[0]].language,
       status: comparison.classes[c].status,
       previousClassId: comparison.classes[c].previous >= 0 ? previous.classIds[comparison.classes[c].previous] : null,
+      lineageId: lineages[c] === 'new' ? null : lineages[c],
       members: members.map((i, m) => ({ snapshotFileId: fragments[i].snapshotFileId, fragmentId: fragments[i].fragmentId, codeChanged: comparison.classes[c].changed[m] })),
     })),
   );
@@ -72,20 +79,22 @@ function identities(fragments: SnapshotFragment[]): FragmentIdentity[] {
 }
 
 /**
- * The previous ready snapshot's classes (as fragment identities, with their ids in the same
- * order) and the raw hash of every one of its fragments by fragment key; all empty for a first
- * snapshot.
+ * The previous ready snapshot's classes (as fragment identities, with their ids and lineage ids in
+ * the same order) and the raw hash of every one of its fragments by fragment key; all empty for a
+ * first snapshot.
  */
 async function previousClasses(tx: Transaction, repositoryId: number, snapshotId: number) {
   const previous = await previousReadySnapshot(tx, repositoryId, snapshotId);
-  if (!previous) return { classes: [], classIds: [], fragments: new Map<string, string>() };
+  if (!previous) return { classes: [], classIds: [], lineageIds: [], fragments: new Map<string, string>() };
   const before = await snapshotFragments(tx, previous.id);
   const theirs = identities(before);
   const indexOf = new Map(before.map((x, i) => [`${x.snapshotFileId}:${x.fragmentId}`, i]));
   const grouped = await classMemberIds(tx, previous.id);
+  const lineageOf = await classLineageIds(tx, previous.id);
   return {
     classes: [...grouped.values()].map((members) => members.map((m) => theirs[indexOf.get(`${m.snapshotFileId}:${m.fragmentId}`)!])),
     classIds: [...grouped.keys()],
+    lineageIds: [...grouped.keys()].map((id) => lineageOf.get(id)!),
     fragments: new Map(theirs.map((m) => [fragmentKey(m), m.rawHash])),
   };
 }

@@ -1,6 +1,5 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { pathToFileURL } from 'node:url';
 import type { QueryInterface, Sequelize } from 'sequelize';
 import { SequelizeStorage, Umzug } from 'umzug';
 import { projectRoot } from '../config';
@@ -13,6 +12,15 @@ export interface Migration {
 
 const migrationsDir = path.join(projectRoot, 'server', 'migrations');
 
+/**
+ * One migration module. The import names its folder in a template so that the compiled server
+ * (scripts/build.mjs bundles with esbuild, which follows such a pattern) carries every migration
+ * as compiled JavaScript; from the sources it is an ordinary relative import.
+ */
+async function loadMigration(file: string): Promise<Migration> {
+  return (await import(`../migrations/${file.replace(/\.ts$/, '')}.ts`)) as Migration;
+}
+
 /** An umzug instance over every file in server/migrations, in file-name order. */
 export function migrator(sequelize: Sequelize) {
   const files = fs
@@ -23,11 +31,11 @@ export function migrator(sequelize: Sequelize) {
     migrations: files.map((file) => ({
       name: file.replace(/\.ts$/, ''),
       up: async () => {
-        const m: Migration = await import(pathToFileURL(path.join(migrationsDir, file)).href);
+        const m = await loadMigration(file);
         await m.up({ queryInterface: sequelize.getQueryInterface(), sequelize });
       },
       down: async () => {
-        const m: Migration = await import(pathToFileURL(path.join(migrationsDir, file)).href);
+        const m = await loadMigration(file);
         await m.down({ queryInterface: sequelize.getQueryInterface(), sequelize });
       },
     })),

@@ -5,6 +5,8 @@
  * ranked in the same order.
  */
 
+import type { FlatSets } from './set-bytes';
+
 /** Sets re-written as ascending, duplicate-free arrays of ranks, and the token → rank map. */
 export interface RankedSets<Token> {
   /** One per input set, same index: ascending ranks, no duplicates. */
@@ -46,7 +48,8 @@ export function rankShingles(sets: readonly (readonly string[])[]): RankedSets<s
 
 /**
  * Ranks sets of non-negative integer tokens: ids by ascending document frequency, ties by the
- * token's value. Repeats inside one set count once. Used by `doublet join` and the benchmark.
+ * token's value. Repeats inside one set count once. Used by the benchmark and the tests; the
+ * command line reads its input as FlatSets and calls rankFlatIntegerSets directly.
  *
  * @example
  * rankIntegerSets([[7, 3, 3], [3, 9]])
@@ -55,7 +58,7 @@ export function rankShingles(sets: readonly (readonly string[])[]): RankedSets<s
  * @throws when a token is not an integer in [0, 2^31)
  */
 export function rankIntegerSets(sets: readonly ArrayLike<number>[]): RankedSets<number> {
-  let max = -1;
+  let total = 0;
   for (let s = 0; s < sets.length; s++) {
     const set = sets[s];
     for (let i = 0; i < set.length; i++) {
@@ -63,39 +66,118 @@ export function rankIntegerSets(sets: readonly ArrayLike<number>[]): RankedSets<
       if (!Number.isInteger(token) || token < 0 || token > 0x7fffffff) {
         throw new Error(`set ${s}: token ${token} is not an integer in [0, 2^31)`);
       }
-      if (token > max) max = token;
+    }
+    total += set.length;
+  }
+  const tokens = new Int32Array(total);
+  const offsets = new Int32Array(sets.length + 1);
+  for (let s = 0, at = 0; s < sets.length; s++) {
+    tokens.set(sets[s], at);
+    at += sets[s].length;
+    offsets[s + 1] = at;
+  }
+  const { ranked, tokenOfRank } = rankFlatIntegerSets({ tokens, offsets });
+  // in token value order, as the dictionary has always been built
+  const byValue = Int32Array.from(tokenOfRank.keys()).sort((a, b) => tokenOfRank[a] - tokenOfRank[b]);
+  const dictionary = new Map<number, number>();
+  for (const rank of byValue) dictionary.set(tokenOfRank[rank], rank);
+  return { ranked, dictionary };
+}
+
+/** Integer sets ranked: the sets, and the token each rank stands for. */
+export interface FlatRanking {
+  /** One per input set, same index: ascending ranks, no duplicates (views into one buffer). */
+  ranked: Int32Array[];
+  /** tokenOfRank[r] is the token ranked r; ranks are exactly 0..length−1. */
+  tokenOfRank: Int32Array;
+}
+
+/** Tokens up to this bound index typed arrays directly (when the input is not far sparser). */
+const DIRECT_TOKENS = 1 << 25;
+
+/**
+ * rankIntegerSets over sets already in one flat array (set-bytes.ts), typed arrays throughout:
+ * no Map, no per-token object. Tokens must be in [0, 2^31) (parseSetBytes guarantees it).
+ *
+ * @example
+ * rankFlatIntegerSets({ tokens: Int32Array.of(7, 3, 3, 3, 9), offsets: Int32Array.of(0, 3, 5) })
+ * // ranked: [Int32Array [0, 2], Int32Array [1, 2]], tokenOfRank: Int32Array [7, 9, 3]
+ */
+export function rankFlatIntegerSets({ tokens, offsets }: FlatSets): FlatRanking {
+  let max = -1;
+  for (let i = 0; i < tokens.length; i++) if (tokens[i] > max) max = tokens[i];
+  // Small tokens are their own dense ids; otherwise ids are the tokens' places among the distinct
+  // values (value order, which keeps "ties by value"), found by binary search.
+  let dense = tokens;
+  let values: Int32Array | undefined;
+  let vocabulary = max + 1;
+  if (max >= DIRECT_TOKENS || max >= 8 * tokens.length + 1024) {
+    const sorted = tokens.slice().sort();
+    let distinct = 0;
+    for (let i = 0; i < sorted.length; i++) if (i === 0 || sorted[i] !== sorted[i - 1]) sorted[distinct++] = sorted[i];
+    values = sorted.subarray(0, distinct);
+    vocabulary = distinct;
+    dense = new Int32Array(tokens.length);
+    for (let i = 0; i < tokens.length; i++) {
+      let lo = 0;
+      let hi = distinct - 1;
+      const token = tokens[i];
+      while (lo < hi) {
+        const mid = (lo + hi) >>> 1;
+        if (values[mid] < token) lo = mid + 1;
+        else hi = mid;
+      }
+      dense[i] = lo;
     }
   }
-  // Tokens up to 2^25 index a typed array directly (fast path for the benchmark's million sets);
-  // larger ones are first compressed to dense ids in value order, which keeps "ties by value".
-  let denseOf: (token: number) => number;
-  let tokenOf: (id: number) => number;
-  let vocabulary: number;
-  if (max < 1 << 25) {
-    denseOf = (token) => token;
-    tokenOf = (id) => id;
-    vocabulary = max + 1;
-  } else {
-    const distinct = new Set<number>();
-    for (const set of sets) for (let i = 0; i < set.length; i++) distinct.add(set[i]);
-    const values = Float64Array.from(distinct).sort();
-    const index = new Map<number, number>();
-    values.forEach((value, id) => index.set(value, id));
-    denseOf = (token) => index.get(token)!;
-    tokenOf = (id) => values[id];
-    vocabulary = values.length;
+  const { rankOf, used } = rankOrder(dense, offsets, vocabulary);
+  const tokenOfRank = new Int32Array(used);
+  for (let id = 0; id < vocabulary; id++) if (rankOf[id] >= 0) tokenOfRank[rankOf[id]] = values ? values[id] : id;
+
+  const count = offsets.length - 1;
+  const out = new Int32Array(tokens.length);
+  const ranked: Int32Array[] = new Array(count);
+  for (let s = 0; s < count; s++) {
+    const from = offsets[s];
+    const to = offsets[s + 1];
+    for (let i = from; i < to; i++) out[i] = rankOf[dense[i]];
+    out.subarray(from, to).sort();
+    let unique = from;
+    for (let i = from; i < to; i++) if (i === from || out[i] !== out[i - 1]) out[unique++] = out[i];
+    ranked[s] = out.subarray(from, unique);
   }
-  const dense: Int32Array[] = new Array(sets.length);
-  for (let s = 0; s < sets.length; s++) {
-    const set = sets[s];
-    const ids = new Int32Array(set.length);
-    for (let i = 0; i < set.length; i++) ids[i] = denseOf(set[i]);
-    dense[s] = ids;
+  return { ranked, tokenOfRank };
+}
+
+/**
+ * Ranks of dense ids in [0, vocabulary) by (document frequency, id), via a counting sort (stable,
+ * so ties keep id order); -1 for an id in no set. A repeat inside one set is counted once (stamp).
+ */
+function rankOrder(dense: Int32Array, offsets: Int32Array, vocabulary: number) {
+  const frequency = new Int32Array(vocabulary);
+  const stamp = new Int32Array(vocabulary).fill(-1);
+  let maxFrequency = 0;
+  for (let s = 0; s + 1 < offsets.length; s++) {
+    for (let i = offsets[s]; i < offsets[s + 1]; i++) {
+      const id = dense[i];
+      if (stamp[id] !== s) {
+        stamp[id] = s;
+        if (++frequency[id] > maxFrequency) maxFrequency = frequency[id];
+      }
+    }
   }
-  const { ranked, rankOf, frequency } = rankDense(dense, vocabulary);
-  const dictionary = new Map<number, number>();
-  for (let id = 0; id < vocabulary; id++) if (frequency[id] > 0) dictionary.set(tokenOf(id), rankOf[id]);
-  return { ranked, dictionary };
+  const bucketStart = new Int32Array(maxFrequency + 2);
+  let used = 0;
+  for (let id = 0; id < vocabulary; id++) {
+    if (frequency[id] > 0) {
+      bucketStart[frequency[id] + 1]++;
+      used++;
+    }
+  }
+  for (let f = 1; f < bucketStart.length; f++) bucketStart[f] += bucketStart[f - 1];
+  const rankOf = new Int32Array(vocabulary).fill(-1);
+  for (let id = 0; id < vocabulary; id++) if (frequency[id] > 0) rankOf[id] = bucketStart[frequency[id]]++;
+  return { rankOf, used };
 }
 
 /**

@@ -53,6 +53,7 @@ export function presentCloneClass(row: ClassRow): CloneClassSummaryDTO {
     cloneType: row.cloneType,
     language: row.language,
     status: row.status,
+    lineageId: row.lineageId,
     paths: row.paths,
   };
 }

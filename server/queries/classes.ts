@@ -17,7 +17,7 @@ const SORT_COLUMNS: Record<ClassListQuery['sort'], string> = {
 };
 
 const CLASS_COLUMNS = `c.id, c.snapshot_id as "snapshotId", c.size, c.tokens, c.min_similarity as "minSimilarity",
-  c.max_similarity as "maxSimilarity", c.clone_type as "cloneType", c.language, c.status,
+  c.max_similarity as "maxSimilarity", c.clone_type as "cloneType", c.language, c.status, c.lineage_id as "lineageId",
   (select array_agg(distinct sf.path) from clone_class_members m join snapshot_files sf on sf.id = m.snapshot_file_id
     where m.class_id = c.id) as paths`;
 
@@ -126,6 +126,12 @@ export async function goneClasses(snapshotId: number, previousId: number): Promi
     [snapshotId, previousId],
   );
   return rows.map(sortPaths);
+}
+
+/** The lineage of each class of a snapshot, by class id. */
+export async function classLineageIds(tx: Transaction | undefined, snapshotId: number): Promise<Map<number, number>> {
+  const rows = await select<{ id: number; lineageId: number }>(tx, 'select id, lineage_id as "lineageId" from clone_classes where snapshot_id = $1', [snapshotId]);
+  return new Map(rows.map((r) => [r.id, r.lineageId]));
 }
 
 /** The members of each class of a snapshot, as (snapshot file, fragment) ids, classes in order. */

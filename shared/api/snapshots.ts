@@ -86,6 +86,8 @@ export interface CloneClassSummaryDTO {
   cloneType: number;
   language: string;
   status: ClassStatus;
+  /** the class lineage it belongs to: the same group of copies across snapshots (tasks and waivers point at it) */
+  lineageId: number;
   /** the members' paths, for the list (at most five) */
   paths: string[];
 }

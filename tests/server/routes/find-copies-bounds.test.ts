@@ -47,18 +47,27 @@ describe('POST /api/find-copies under the analysis bounds', () => {
     const team = await buildTeam();
     await buildRepository({ organisationId: team.organisation.id });
     const engineer = await signedInAgent(app, team.engineer);
-    const request = engineer.post('/api/find-copies').timeout(2_500).send({ language: 'typescript', text: PATHOLOGICAL_TS });
-    const gone = request.then(
-      () => 'answered',
-      (error: { timeout?: number }) => (error.timeout ? 'client timed out' : String(error)),
-    );
-    await new Promise((resolve) => setTimeout(resolve, 1_000));
-    const busy = await cpuDuring(1_000);
-    expect(await gone).toBe('client timed out');
+    const request = engineer.post('/api/find-copies').timeout(60_000).send({ language: 'typescript', text: PATHOLOGICAL_TS });
+    const gone = new Promise<string>((resolve) => {
+      request.on('abort', () => resolve('client gone'));
+      request.then(
+        () => resolve('answered'),
+        (error: unknown) => resolve(String(error)),
+      );
+    });
+    // The analysis burns CPU in a pool thread. On a loaded machine it gets only a share of a core,
+    // so measure until it has used 200 ms, then compare the same stretch of wall time after the
+    // client has gone.
+    const started = Date.now();
+    let busy = 0;
+    while (busy <= 200 && Date.now() - started < 20_000) busy += await cpuDuring(500);
+    const window = Date.now() - started;
+    request.abort();
+    expect(await gone).toBe('client gone');
     await new Promise((resolve) => setTimeout(resolve, 500));
-    const after = await cpuDuring(1_000);
+    const after = await cpuDuring(window);
     expect(busy).toBeGreaterThan(200);
     expect(after).toBeLessThan(busy / 2);
     await engineer.get('/api/health').expect(200);
-  }, 30_000);
+  }, 60_000);
 });

@@ -16,7 +16,7 @@ function member(path: string, name: string, changed: boolean, startLine = 10): C
 function detail(members: CloneClassMemberDTO[], pairs: CloneClassDetailDTO['pairs']): CloneClassDetailDTO {
   return {
     id: 9, snapshotId: 2, size: members.length, tokens: 180, minSimilarity: 0.8, maxSimilarity: 1, cloneType: 3,
-    language: 'javascript', status: 'drifted', paths: members.map((m) => m.path), repositoryId: 1, snapshotLabel: 'v2',
+    language: 'javascript', status: 'drifted', lineageId: 4, paths: members.map((m) => m.path), repositoryId: 1, snapshotLabel: 'v2',
     members, pairs,
   };
 }
