@@ -4,7 +4,7 @@ import path from 'node:path';
 import cookieParser from 'cookie-parser';
 import express, { type ErrorRequestHandler, type RequestHandler } from 'express';
 import helmet from 'helmet';
-import { bearerAuthentication } from './auth/bearer';
+import { bearerAuthentication, skipForTokens } from './auth/bearer';
 import { CredentialLimiter, type CredentialLimits } from './auth/credential-limit';
 import { passport } from './auth/passport';
 import { absoluteSessionLifetime, createSessionMiddleware } from './auth/session';
@@ -54,11 +54,12 @@ export function createApp(options: AppOptions = {}) {
   api.use(bearerAuthentication());
   api.use(express.json({ limit: '2mb' }));
   api.use(refuseNul);
-  api.use(createSessionMiddleware(sequelize, { idleMs: config.sessionIdleMs }));
-  api.use(cookieParser());
-  api.use(passport.initialize());
-  api.use(passport.session());
-  api.use(absoluteSessionLifetime(options.sessionMaxAgeMs ?? config.sessionMaxAgeMs));
+  // A request authenticated by an API token never reads cookies or a session.
+  api.use(skipForTokens(createSessionMiddleware(sequelize, { idleMs: config.sessionIdleMs })));
+  api.use(skipForTokens(cookieParser()));
+  api.use(skipForTokens(passport.initialize()));
+  api.use(skipForTokens(passport.session()));
+  api.use(skipForTokens(absoluteSessionLifetime(options.sessionMaxAgeMs ?? config.sessionMaxAgeMs)));
   api.use(buildApiRouter());
   app.use('/api', api);
 

@@ -4,6 +4,7 @@ import type { Request, RequestHandler, Response } from 'express';
 import { CSRF_HEADER } from '../../shared/api/session';
 import { loadConfig } from '../config';
 import { HttpError } from '../errors';
+import { isTokenRequest } from './bearer';
 import { optionalUser } from './current-user';
 import { sessionSecret } from './secret';
 import './types';
@@ -60,12 +61,13 @@ const SAFE_METHODS = new Set(['GET', 'HEAD', 'OPTIONS']);
 
 /**
  * Refuses (403 `csrf`) every state-changing request whose header token does not match its cookie
- * and verify for its session. There is no exemption: a Bearer request never gets here (it is
- * answered by server/auth/bearer.ts first), and a request with no cookie has no token.
+ * and verify for its session. The one exemption is a request authenticated by a valid API token
+ * (server/auth/bearer.ts): it carries no cookie a browser could send on its own, its session and
+ * cookies were never read, and an invalid or unusable Bearer header was already refused with 401.
  */
 export function csrfProtection(): RequestHandler {
   return (req, _res, next) => {
-    if (SAFE_METHODS.has(req.method)) return next();
+    if (SAFE_METHODS.has(req.method) || isTokenRequest(req)) return next();
     if (!csrfUtilities().validateRequest(req)) {
       return next(new HttpError(403, 'csrf', 'Missing or stale CSRF token: reload the page and try again.'));
     }

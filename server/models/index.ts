@@ -16,6 +16,7 @@ import { CloneClass, initCloneClass } from './CloneClass';
 import { CloneClassMember, initCloneClassMember } from './CloneClassMember';
 import { SnapshotMetric, initSnapshotMetric } from './SnapshotMetric';
 import { OutboxMessage, initOutboxMessage } from './OutboxMessage';
+import { ApiToken, initApiToken } from './ApiToken';
 
 export {
   Invitation,
@@ -35,6 +36,7 @@ export {
   CloneClassMember,
   SnapshotMetric,
   OutboxMessage,
+  ApiToken,
 };
 
 const initialised = new WeakSet<Sequelize>();
@@ -65,6 +67,7 @@ export function initModels(sequelize: Sequelize): void {
   initCloneClassMember(sequelize);
   initSnapshotMetric(sequelize);
   initOutboxMessage(sequelize);
+  initApiToken(sequelize);
 
   Organisation.hasMany(User, { foreignKey: 'organisationId', as: 'users' });
   User.belongsTo(Organisation, { foreignKey: 'organisationId', as: 'organisation' });

@@ -13,6 +13,7 @@ export const cloneClassRoutes = defineRoutes('/clone-classes', [
     method: 'get',
     path: '/:id',
     guard: 'cloneClasses.read',
+    token: 'read',
     handler: async (req, res) => {
       const { id } = parse(idParamsSchema, req.params);
       const row = found(await findClass(currentUser(req).organisationId, id), 'Clone class');

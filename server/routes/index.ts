@@ -12,6 +12,7 @@ import { findCopiesRoutes } from './find-copies';
 import { repositoryRoutes } from './repositories';
 import { snapshotRoutes } from './snapshots';
 import { outboxRoutes } from './outbox';
+import { apiTokenRoutes } from './tokens';
 
 /** Every resource's routes. Add new router files here; tests read this list. */
 export const ROUTE_GROUPS: RouteGroup[] = [
@@ -24,6 +25,7 @@ export const ROUTE_GROUPS: RouteGroup[] = [
   cloneClassRoutes,
   findCopiesRoutes,
   outboxRoutes,
+  apiTokenRoutes,
 ];
 
 /** Every declared API route with its full path and guard (what the route × role tests enumerate). */
@@ -51,7 +53,7 @@ export function buildApiRouter(): express.Router {
           next(fromDatabaseError(error));
         }
       };
-      router[route.method](path, guardMiddleware(route.guard), csrf, handler);
+      router[route.method](path, guardMiddleware(route.guard, route.token), csrf, handler);
     }
   }
 

@@ -41,6 +41,7 @@ export const repositoryRoutes = defineRoutes('/repositories', [
     method: 'get',
     path: '/:id',
     guard: 'repositories.read',
+    token: 'read',
     handler: async (req, res) => {
       const { id } = parse(repositoryParamsSchema, req.params);
       const repository = found(await findRepository(currentUser(req).organisationId, id), 'Repository');
@@ -77,6 +78,7 @@ export const repositoryRoutes = defineRoutes('/repositories', [
     method: 'get',
     path: '/:id/snapshots',
     guard: 'snapshots.read',
+    token: 'read',
     handler: async (req, res) => {
       const { id } = parse(repositoryParamsSchema, req.params);
       const repository = found(await findRepository(currentUser(req).organisationId, id), 'Repository');
@@ -89,6 +91,7 @@ export const repositoryRoutes = defineRoutes('/repositories', [
     method: 'get',
     path: '/:id/metrics',
     guard: 'snapshots.read',
+    token: 'read',
     handler: async (req, res) => {
       const { id } = parse(repositoryParamsSchema, req.params);
       const repository = found(await findRepository(currentUser(req).organisationId, id), 'Repository');

@@ -14,6 +14,7 @@ export const snapshotRoutes = defineRoutes('/snapshots', [
     method: 'get',
     path: '/:id',
     guard: 'snapshots.read',
+    token: 'read',
     handler: async (req, res) => {
       const { id } = parse(idParamsSchema, req.params);
       const { snapshot, repository } = found(await findSnapshot(currentUser(req).organisationId, id), 'Snapshot');
@@ -25,6 +26,7 @@ export const snapshotRoutes = defineRoutes('/snapshots', [
     method: 'get',
     path: '/:id/classes',
     guard: 'cloneClasses.read',
+    token: 'read',
     handler: async (req, res) => {
       const { id } = parse(idParamsSchema, req.params);
       const query = parse(classListQuerySchema, req.query);
@@ -39,6 +41,7 @@ export const snapshotRoutes = defineRoutes('/snapshots', [
     method: 'get',
     path: '/:id/comparison',
     guard: 'cloneClasses.read',
+    token: 'read',
     handler: async (req, res) => {
       const { id } = parse(idParamsSchema, req.params);
       const { snapshot, repository } = found(await findSnapshot(currentUser(req).organisationId, id), 'Snapshot');

@@ -33,6 +33,7 @@ const VALID_BODIES: Record<string, (role: Role) => object> = {
   'POST /api/invitations': (role) => ({ email: uniqueEmail(`registry-${role}`), name: 'Registry Check', role: 'viewer' }),
   'POST /api/repositories': (role) => ({ name: `registry-${role}-${Date.now()}` }),
   'POST /api/find-copies': () => ({ language: 'typescript', text: 'function weighWagon(axles: number) { return axles * 2; }' }),
+  'POST /api/tokens': () => ({ name: 'Registry check', repositoryId: 2147483647 }),
 };
 
 const routes = registeredRoutes();

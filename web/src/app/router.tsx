@@ -15,6 +15,7 @@ function page<K extends string>(load: () => Promise<Record<K, ComponentType>>, n
 const AcceptInvitationRoute = page(() => import('./routes/accept-invitation'), 'AcceptInvitationRoute');
 const AccountRoute = page(() => import('./routes/account'), 'AccountRoute');
 const AdminRoute = page(() => import('./routes/admin'), 'AdminRoute');
+const ApiTokensRoute = page(() => import('./routes/api-tokens'), 'ApiTokensRoute');
 const CloneClassRoute = page(() => import('./routes/clone-class'), 'CloneClassRoute');
 const CloneClassesRoute = page(() => import('./routes/clone-classes'), 'CloneClassesRoute');
 const FindCopiesRoute = page(() => import('./routes/find-copies'), 'FindCopiesRoute');
@@ -76,10 +77,7 @@ export function AppRoutes() {
           <Route path="tasks" element={<PlaceholderRoute title="Tasks" description="Refactor work on clone classes, with owners." />} />
         </Route>
         <Route element={<RequireAction action="apiTokens.manage" />}>
-          <Route
-            path="api-tokens"
-            element={<PlaceholderRoute title="API tokens" description="Tokens for CI to upload snapshots and check clone budgets." />}
-          />
+          <Route path="api-tokens" element={<ApiTokensRoute />} />
         </Route>
         <Route element={<RequireAction action="users.manage" />}>
           <Route path="admin" element={<AdminRoute />} />
