@@ -4,15 +4,10 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { analyzeFile, analyzeFiles } from '../../analyzers';
 import { readFixture } from './languages/fixture';
+import { PATHOLOGICAL_TS } from '../support/cpu';
 
 const encode = (s: string) => new TextEncoder().encode(s);
 const here = path.dirname(fileURLToPath(import.meta.url));
-
-/**
- * A real pathological input: nested `<T>(` casts make Babel's TypeScript parser try both readings
- * (cast or generic arrow) at every level, so the time doubles per level: 24 levels would take hours.
- */
-const PATHOLOGICAL_TS = `const x = ${'<a>('.repeat(24)}y;\n`;
 
 describe('analyzeFiles', () => {
   it('returns results in input order, equal to analyzeFile, with skipped files listed apart', async () => {

@@ -2,19 +2,9 @@ import { afterAll, describe, expect, it } from 'vitest';
 import os from 'node:os';
 import { analyzeSnippet, analyzeSnippetInPool, closeSnippetPool } from '../../analyzers';
 import { MAX_WAITING_SNIPPETS } from '../../analyzers/snippet-pool';
+import { cpuDuring, cpuWhileBusy, PATHOLOGICAL_TS } from '../support/cpu';
 
 afterAll(() => closeSnippetPool());
-
-/** Nested `<T>(` casts: Babel's TypeScript parser tries both readings at every level (see pool.test.ts); 24 levels take hours. */
-const PATHOLOGICAL_TS = `const x = ${'<a>('.repeat(24)}y;\n`;
-
-/** CPU time (ms) this process, pool threads included, spends during the next `ms` milliseconds. */
-async function cpuDuring(ms: number): Promise<number> {
-  const before = process.cpuUsage();
-  await new Promise((resolve) => setTimeout(resolve, ms));
-  const used = process.cpuUsage(before);
-  return (used.user + used.system) / 1000;
-}
 
 describe('analyzeSnippetInPool', () => {
   it('gives what analyzeSnippet gives on the caller thread', async () => {
@@ -48,13 +38,7 @@ describe('analyzeSnippetInPool', () => {
       () => 'resolved',
       (error: unknown) => error,
     );
-    // While it runs, a thread burns CPU: the control figure for the check after the abort. On a
-    // loaded machine the thread gets only a share of a core, so measure until it has used 200 ms
-    // and compare the same stretch of wall time after the abort.
-    const started = Date.now();
-    let busy = 0;
-    while (busy <= 200 && Date.now() - started < 20_000) busy += await cpuDuring(500);
-    const window = Date.now() - started;
+    const { busy, window } = await cpuWhileBusy(200);
     controller.abort(new Error('client gone'));
     expect(await settled).toEqual(new Error('client gone'));
     await new Promise((resolve) => setTimeout(resolve, 300));

@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { closeSnippetPool } from '../../../analyzers';
 import { createApp } from '../../../server/app';
 import { buildRepository, buildTeam, signedInAgent, useDatabase } from '../../support';
+import { cpuDuring, cpuWhileBusy, PATHOLOGICAL_TS } from '../../support/cpu';
 
 useDatabase();
 
@@ -14,17 +15,6 @@ afterAll(() => closeSnippetPool());
 
 /** The input of the hardening report: 24,999 nested lambdas, under the 200,000-character limit. */
 const NESTED_LAMBDAS = `f = ${'lambda: '.repeat(24_999)}1\n`;
-
-/** Nested `<T>(` casts: Babel's TypeScript parser tries both readings at every level; 24 levels take hours. */
-const PATHOLOGICAL_TS = `const x = ${'<a>('.repeat(24)}y;\n`;
-
-/** CPU time (ms) this process, pool threads included, spends during the next `ms` milliseconds. */
-async function cpuDuring(ms: number): Promise<number> {
-  const before = process.cpuUsage();
-  await new Promise((resolve) => setTimeout(resolve, ms));
-  const used = process.cpuUsage(before);
-  return (used.user + used.system) / 1000;
-}
 
 describe('POST /api/find-copies under the analysis bounds', () => {
   it('answers the nested-lambda snippet with 422 naming the nesting limit within seconds, and the server still answers', async () => {
@@ -55,13 +45,7 @@ describe('POST /api/find-copies under the analysis bounds', () => {
         (error: unknown) => resolve(String(error)),
       );
     });
-    // The analysis burns CPU in a pool thread. On a loaded machine it gets only a share of a core,
-    // so measure until it has used 200 ms, then compare the same stretch of wall time after the
-    // client has gone.
-    const started = Date.now();
-    let busy = 0;
-    while (busy <= 200 && Date.now() - started < 20_000) busy += await cpuDuring(500);
-    const window = Date.now() - started;
+    const { busy, window } = await cpuWhileBusy(200);
     request.abort();
     expect(await gone).toBe('client gone');
     await new Promise((resolve) => setTimeout(resolve, 500));
