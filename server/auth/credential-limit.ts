@@ -104,9 +104,12 @@ export class CredentialLimiter {
   }
 
   private async release(names: string[], reset: string[]): Promise<void> {
+    // Rows are locked in key order, the order the counting insert takes them in, so concurrent
+    // attempts on the same account cannot deadlock.
     await this.sequelize.query(
-      `update credential_failures set failures = case when key = any($2::text[]) then 0 else greatest(failures - 1, 0) end
-        where key = any($1::text[])`,
+      `update credential_failures f set failures = case when f.key = any($2::text[]) then 0 else greatest(f.failures - 1, 0) end
+         from (select key from credential_failures where key = any($1::text[]) order by key for update) locked
+        where f.key = locked.key`,
       { bind: [names, reset] },
     );
   }

@@ -6,60 +6,21 @@
  * Run it on a quiet machine: it prints the load average before and after.
  * Target: ≥ 1 MB/s of source per core for JS/TS.
  */
-import fs from 'node:fs';
-import { createRequire } from 'node:module';
 import os from 'node:os';
-import path from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { analyzeFiles } from '../../analyzers';
 import { POOL_RESOURCE_LIMITS } from '../../analyzers/pool';
 import type { SourceFile } from '../../analyzers/types';
+import { JS_PACKAGES, loadPackages } from './quality/corpus';
 
-const require = createRequire(import.meta.url);
-
-interface Corpus {
-  pkg: string;
-  /** Folders (relative to the package root) walked for sources. */
-  dirs: string[];
-  /** File suffixes taken; declaration files have no bodies and are left out. */
-  suffixes: string[];
-}
-
-const CORPORA: Corpus[] = [
-  { pkg: 'react-dom', dirs: ['cjs'], suffixes: ['.development.js'] },
-  { pkg: '@babel/parser', dirs: ['lib'], suffixes: ['index.js'] },
-  { pkg: 'sequelize', dirs: ['lib'], suffixes: ['.js'] },
-  { pkg: 'express', dirs: ['lib'], suffixes: ['.js'] },
-  { pkg: 'zod', dirs: ['src'], suffixes: ['.ts'] },
-];
-
-function walk(dir: string, out: string[]): void {
-  for (const entry of fs.readdirSync(dir, { withFileTypes: true })) {
-    const full = path.join(dir, entry.name);
-    if (entry.isDirectory()) walk(full, out);
-    else if (entry.isFile()) out.push(full);
-  }
-}
-
+/** The published packages of `npm run bench:quality` (one list for both benchmarks), as bytes. */
 function load(): { files: SourceFile[]; names: string[] } {
-  const files: SourceFile[] = [];
-  const names: string[] = [];
-  for (const corpus of CORPORA) {
-    const manifest = require.resolve(`${corpus.pkg}/package.json`);
-    const root = path.dirname(manifest);
-    const version = (JSON.parse(fs.readFileSync(manifest, 'utf8')) as { version: string }).version;
-    const found: string[] = [];
-    for (const dir of corpus.dirs) walk(path.join(root, dir), found);
-    const picked = found.filter((f) => corpus.suffixes.some((s) => f.endsWith(s)) && !/\.d\.[cm]?ts$/.test(f) && !f.includes('/tests/'));
-    let bytes = 0;
-    for (const file of picked) {
-      const content = new Uint8Array(fs.readFileSync(file));
-      bytes += content.byteLength;
-      files.push({ path: `${corpus.pkg}/${path.relative(root, file)}`, content });
-    }
-    names.push(`${corpus.pkg}@${version} (${picked.length} files, ${(bytes / 1e6).toFixed(2)} MB)`);
-  }
-  return { files, names };
+  const { files, sources } = loadPackages(JS_PACKAGES);
+  const encoder = new TextEncoder();
+  return {
+    files: files.map((f) => ({ path: f.path, content: encoder.encode(f.text) })),
+    names: sources.map((s) => `${s.name}@${s.version} (${s.files} files, ${(s.bytes / 1e6).toFixed(2)} MB)`),
+  };
 }
 
 const mb = (bytes: number) => bytes / 1e6;

@@ -6,7 +6,7 @@ import type { User } from '../models/User';
 
 /**
  * Creates a token for the repository and returns its secret with the stored record. The secret
- * is `dbt_` and 32 random bytes (base64url); only its SHA-256 and first characters are stored, so
+ * is `dblt_` and 32 random bytes (base64url); only its SHA-256 and first characters are stored, so
  * this is the one moment anyone sees it.
  */
 export async function createApiToken(input: {

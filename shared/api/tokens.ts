@@ -6,10 +6,10 @@ import { z } from 'zod';
 import { MAX_SERIAL_ID, serialIdSchema } from './ids';
 
 /** What every secret starts with, so a leaked one is recognisable as Doublet's. */
-export const API_TOKEN_PREFIX = 'dbt_';
+export const API_TOKEN_PREFIX = 'dblt_';
 
 /** A well-formed secret: the prefix and 32 random bytes as 43 base64url characters. */
-export const API_TOKEN_PATTERN = /^dbt_[A-Za-z0-9_-]{43}$/;
+export const API_TOKEN_PATTERN = /^dblt_[A-Za-z0-9_-]{43}$/;
 
 /** Characters of the secret kept for display (the prefix and four more). */
 export const API_TOKEN_DISPLAY_LENGTH = API_TOKEN_PREFIX.length + 4;

@@ -55,7 +55,7 @@ describe('API tokens in Chromium', () => {
       const secretBox = page.getByTestId('new-token-secret');
       await secretBox.waitFor();
       const secret = (await secretBox.textContent())?.trim() ?? '';
-      expect(secret).toMatch(/^dbt_[A-Za-z0-9_-]{43}$/);
+      expect(secret).toMatch(/^dblt_[A-Za-z0-9_-]{43}$/);
       await expect.poll(() => page.getByText('It will not be shown again', { exact: false }).count()).toBe(1);
       await expect.poll(() => page.getByRole('button', { name: 'Copy' }).count()).toBe(1);
       await page.screenshot({ path: path.join(SCREENSHOTS, 'api-tokens-created.png'), fullPage: true });

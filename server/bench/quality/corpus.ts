@@ -39,7 +39,7 @@ export interface PackageSpec {
   suffixes: string[];
 }
 
-/** The JavaScript/TypeScript packages (the same as `npm run bench:analyze`). */
+/** The JavaScript/TypeScript packages of `npm run bench:quality` and `npm run bench:analyze`. */
 export const JS_PACKAGES: PackageSpec[] = [
   { pkg: 'react-dom', dirs: ['cjs'], suffixes: ['.development.js'] },
   { pkg: '@babel/parser', dirs: ['lib'], suffixes: ['index.js'] },

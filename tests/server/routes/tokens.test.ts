@@ -37,12 +37,12 @@ function bearer(token: string) {
 describe('POST /api/tokens', () => {
   it('creates a token for a lead: the secret once, only its hash and prefix stored', async () => {
     const { repository, created, team } = await leadWithToken('2031-01-01T00:00:00Z');
-    expect(created.token).toMatch(/^dbt_[A-Za-z0-9_-]{43}$/);
+    expect(created.token).toMatch(/^dblt_[A-Za-z0-9_-]{43}$/);
     expect(created.apiToken).toMatchObject({
       name: 'Nightly CI',
       repositoryId: repository.id,
       repositoryName: repository.name,
-      prefix: created.token.slice(0, 8),
+      prefix: created.token.slice(0, 9),
       createdByName: team.lead.name,
       expiresAt: '2031-01-01T00:00:00.000Z',
       lastUsedAt: null,
@@ -140,7 +140,7 @@ describe('Bearer authentication by token alone', () => {
     await revoked.lead.delete(`/api/tokens/${revoked.created.apiToken.id}`).expect(204);
     const messages = new Set<string>();
     const candidates = [
-      `dbt_${'A'.repeat(43)}`,
+      `dblt_${'A'.repeat(43)}`,
       'not-a-token',
       created.token.slice(0, -1),
       '',
