@@ -12,6 +12,7 @@ const commands: Record<string, { describe: string; load: () => Promise<CommandMo
   import: { describe: 'load a local folder as a snapshot of a repository (database)', load: () => import('./cli/import') },
   classes: { describe: "print a snapshot's fragments, clone pairs and clone classes (database)", load: () => import('./cli/classes') },
   'find-copies': { describe: 'find every indexed copy of a snippet (database)', load: () => import('./cli/find-copies') },
+  'user:create': { describe: 'create a user, and its organisation when needed (database)', load: () => import('./cli/user-create') },
   'index-rebuild': { describe: 're-rank the prefix index by current shingle frequency (database)', load: () => import('./cli/index-rebuild') },
 };
 

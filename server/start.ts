@@ -1,14 +1,16 @@
 import { build } from 'vite';
-import { demoSignInLines, seedDemo } from './commands/seedDemo';
+import { firstAdminLines, firstRunStep } from './commands/firstRun';
+import { demoOrganisationExists, demoSignInLines, seedDemo } from './commands/seedDemo';
 import { seedDemoRepositories } from './commands/seedDemoRepositories';
-import { projectRoot } from './config';
+import { loadConfig, projectRoot } from './config';
 import { openDatabase } from './db';
 import { drainOnSignals, onShutdown, serve } from './index';
 import { startEmbedded, stopEmbedded } from './jobs';
-import { initModels } from './models';
+import { initModels, User } from './models';
 
 /**
- * `npm start`: database up and migrated, demo data on an empty database, client built, then serve
+ * `npm start`: database up and migrated, demo data on a database with no users (DOUBLET_DEMO), the
+ * first-admin command printed while no one can sign in, client built, then serve
  * until SIGTERM or Ctrl-C, which drain in-flight requests first. The local cluster keeps running
  * (`npm run db:stop` stops it).
  */
@@ -18,14 +20,18 @@ async function main() {
   await startEmbedded();
   // Jobs in hand finish (or are left to be retried) after the HTTP requests, within the grace period.
   onShutdown('jobs and the mail catcher', stopEmbedded);
-  const seeded = await seedDemo();
+  const step = firstRunStep(await User.count(), loadConfig().demo);
+  const seeded = step === 'seed' || step === 'force-seed' ? await seedDemo({ force: step === 'force-seed' }) : null;
   if (seeded) {
     console.log(`Seeding the demo organisation "${seeded.name}" with its repositories…`);
     for (const line of await seedDemoRepositories(seeded)) console.log(line);
-    console.log('Demo sign-ins (role, e-mail, password):');
   }
-  else console.log('Demo sign-ins, if the demo organisation is still there (role, e-mail, password):');
-  for (const line of demoSignInLines()) console.log(line);
+  if (seeded || (step !== 'first-admin' && (await demoOrganisationExists()))) {
+    console.log('Demo sign-ins (role, e-mail, password):');
+    for (const line of demoSignInLines()) console.log(line);
+  }
+  // Counted again: a seed attempt on a database filled by `npm run import` adds no one.
+  if ((await User.count()) === 0) for (const line of firstAdminLines()) console.log(line);
   console.log('Building the client…');
   const nodeEnv = process.env.NODE_ENV;
   await build({ configFile: `${projectRoot}/vite.config.ts`, logLevel: 'warn' });

@@ -49,14 +49,28 @@ export async function createDemoOrganisation(options: { transaction?: Transactio
 
 /**
  * Seeds the demo organisation when the database has no organisation at all, and returns it; on a
- * database in use it does nothing and returns null. Safe to call at every start.
+ * database in use it does nothing and returns null. With `force` (DOUBLET_DEMO=1) it seeds beside
+ * other organisations too, unless one named like the demo is already there. Safe to call at every
+ * start.
  *
  * @example
  * const seeded = await seedDemo(); // Organisation on a fresh database, else null
  */
-export async function seedDemo(options: { transaction?: Transaction } = {}): Promise<Organisation | null> {
-  if ((await Organisation.count({ transaction: options.transaction })) > 0) return null;
-  return createDemoOrganisation(options);
+export async function seedDemo(options: { transaction?: Transaction; force?: boolean } = {}): Promise<Organisation | null> {
+  const { transaction } = options;
+  if (!options.force) {
+    if ((await Organisation.count({ transaction })) > 0) return null;
+  } else {
+    // The demo users' e-mails are unique too: an organisation renamed since still holds them.
+    if ((await Organisation.count({ where: { name: DEMO_ORGANISATION_NAME }, transaction })) > 0) return null;
+    if ((await User.count({ where: { email: DEMO_SIGN_INS.map((s) => s.email) }, transaction })) > 0) return null;
+  }
+  return createDemoOrganisation({ transaction });
+}
+
+/** Whether the demo organisation is in the database (its sign-ins are worth printing then). */
+export async function demoOrganisationExists(): Promise<boolean> {
+  return (await Organisation.count({ where: { name: DEMO_ORGANISATION_NAME } })) > 0;
 }
 
 /** The demo sign-ins as console lines. */

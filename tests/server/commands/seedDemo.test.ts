@@ -32,6 +32,21 @@ describe('seedDemo', () => {
     }
   });
 
+  it('seeds beside other organisations when forced (DOUBLET_DEMO=1), and only once', async () => {
+    await buildOrganisation();
+    // Rolled back like the test above; no other test file commits the demo organisation.
+    const transaction = await db().transaction();
+    try {
+      expect(await seedDemo({ transaction })).toBeNull();
+      const seeded = await seedDemo({ force: true, transaction });
+      expect(seeded?.name).toBe(DEMO_ORGANISATION_NAME);
+      expect(await User.count({ where: { organisationId: seeded!.id }, transaction })).toBe(DEMO_SIGN_INS.length);
+      expect(await seedDemo({ force: true, transaction })).toBeNull();
+    } finally {
+      await transaction.rollback();
+    }
+  });
+
   describe('edge cases', () => {
     it('uses addresses under the reserved .example domain only', () => {
       for (const signIn of DEMO_SIGN_INS) expect(signIn.email).toMatch(/@[a-z-]+\.example$/);
