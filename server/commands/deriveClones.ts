@@ -6,6 +6,7 @@ import { clonePairsAcross, clonePairsWithin, snapshotFragments, type SnapshotFra
 import { cloneClasses, clonedTokens } from '../matching/classes';
 import { classLineageIds, classMemberIds } from '../queries/classes';
 import { insertSnapshotMetrics, previousReadySnapshot } from '../queries/snapshots';
+import { activeWaivers, endWaivers } from '../queries/waivers';
 import { storeClasses } from '../queries/write-classes';
 import { classStats } from '../reports/class-stats';
 
@@ -40,6 +41,12 @@ export async function deriveClones(tx: Transaction, snapshotId: number, reposito
     classes.map((members) => members.map((i) => fragmentKey(mine[i]))),
   );
 
+  const waived = await settleWaivers(tx, snapshotId, fragments, mine, classes, lineages, previous);
+  const unwaived = clonedTokens(
+    fragments.map((x) => ({ file: x.snapshotFileId, tokenStart: x.tokenStart, tokenEnd: x.tokenEnd })),
+    pairs.filter((p) => !waived.has(p.a)),
+  );
+
   const stats = classStats(fragments.length, classes, pairs);
   await storeClasses(
     tx,
@@ -59,6 +66,7 @@ export async function deriveClones(tx: Transaction, snapshotId: number, reposito
   await insertSnapshotMetrics(tx, snapshotId, {
     fragmentTokens: tokens.total,
     clonedTokens: tokens.cloned,
+    unwaivedClonedTokens: unwaived.cloned,
     cloneRatio,
     pairCount: pairs.length,
     classCount: classes.length,
@@ -71,6 +79,45 @@ export async function deriveClones(tx: Transaction, snapshotId: number, reposito
     goneClassCount: comparison.gone.length,
   });
   return { fragmentCount: fragments.length, pairCount: pairs.length, classCount: classes.length, cloneRatio };
+}
+
+/**
+ * Ends, by itself, the active waiver of each lineage whose class in this snapshot has a member its
+ * class in the previous snapshot did not have (a copy joined: the waiver no longer covers what it
+ * was given for), naming the first such member by path and name. Returns the fragments (by index)
+ * of the classes whose lineage stays waived, which the unwaived clone ratio leaves out; a clone
+ * pair lies within one class, so leaving out its first fragment's class leaves out the pair.
+ */
+async function settleWaivers(
+  tx: Transaction,
+  snapshotId: number,
+  fragments: SnapshotFragment[],
+  mine: FragmentIdentity[],
+  classes: number[][],
+  lineages: (number | 'new')[],
+  previous: Awaited<ReturnType<typeof previousClasses>>,
+): Promise<Set<number>> {
+  const continued = lineages.filter((l): l is number => l !== 'new');
+  const waivers = await activeWaivers(continued, tx);
+  if (waivers.size === 0) return new Set();
+  const before = new Map<number, Set<string>>();
+  previous.classes.forEach((members, p) => {
+    const keys = before.get(previous.lineageIds[p]) ?? new Set<string>();
+    for (const m of members) keys.add(fragmentKey(m));
+    before.set(previous.lineageIds[p], keys);
+  });
+  const waivedFragments = new Set<number>();
+  const ended: { lineageId: number; reason: string }[] = [];
+  classes.forEach((members, c) => {
+    const lineage = lineages[c];
+    if (lineage === 'new' || !waivers.has(lineage)) return;
+    const known = before.get(lineage) ?? new Set<string>();
+    const joined = members.find((i) => !known.has(fragmentKey(mine[i])));
+    if (joined === undefined) for (const i of members) waivedFragments.add(i);
+    else ended.push({ lineageId: lineage, reason: `a new member joined: ${fragments[joined].path} ${fragments[joined].name}` });
+  });
+  await endWaivers(tx, snapshotId, ended);
+  return waivedFragments;
 }
 
 function identities(fragments: SnapshotFragment[]): FragmentIdentity[] {

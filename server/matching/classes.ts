@@ -91,8 +91,12 @@ export function clonedTokens(spans: readonly TokenSpan[], pairs: readonly { a: n
   };
 }
 
-/** Size of the union of the spans' ranges, per file. */
-function coveredTokens(spans: readonly TokenSpan[]): number {
+/**
+ * Size of the union of the spans' ranges, per file: each token once however many spans cover it.
+ *
+ * @example coveredTokens([{ file: 'a', tokenStart: 0, tokenEnd: 100 }, { file: 'a', tokenStart: 20, tokenEnd: 150 }]) // 150
+ */
+export function coveredTokens(spans: readonly TokenSpan[]): number {
   const sorted = [...spans].sort((x, y) =>
     x.file < y.file ? -1 : x.file > y.file ? 1 : x.tokenStart - y.tokenStart,
   );

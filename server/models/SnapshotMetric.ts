@@ -5,6 +5,8 @@ export class SnapshotMetric extends Model<InferAttributes<SnapshotMetric>, Infer
   declare snapshotId: number;
   declare fragmentTokens: number;
   declare clonedTokens: number;
+  /** cloned tokens without the classes whose lineage was waived (after this load ended waivers) */
+  declare unwaivedClonedTokens: number;
   declare cloneRatio: number;
   declare pairCount: number;
   declare classCount: number;
@@ -23,6 +25,7 @@ export function initSnapshotMetric(sequelize: Sequelize) {
       snapshotId: { type: DataTypes.INTEGER, primaryKey: true },
       fragmentTokens: { type: DataTypes.BIGINT, allowNull: false },
       clonedTokens: { type: DataTypes.BIGINT, allowNull: false },
+      unwaivedClonedTokens: { type: DataTypes.BIGINT, allowNull: false },
       cloneRatio: { type: DataTypes.DOUBLE, allowNull: false },
       pairCount: { type: DataTypes.INTEGER, allowNull: false },
       classCount: { type: DataTypes.INTEGER, allowNull: false },

@@ -6,12 +6,19 @@ import { exceedsBudget, parseBudget } from '../reports/budget';
 /**
  * Whether the latest snapshot is over the repository's budget: the exact verdict `doublet scan
  * --budget` gives (token counts against the stored decimal, in integers), never the rounded ratio.
+ * Classes whose lineage is waived are left out (the unwaived cloned tokens).
  */
 function isOverBudget(cloneBudget: string | null, latest: LatestSnapshot | null): boolean {
-  if (cloneBudget === null || latest?.clonedTokens == null || latest.fragmentTokens == null) return false;
+  if (cloneBudget === null || latest?.unwaivedClonedTokens == null || latest.fragmentTokens == null) return false;
   // numeric(7,6) arrives as "0.400000"; a value set in this request may still be a longer number
   // string, so it is put in the form the column stores first
-  return exceedsBudget({ clonedTokens: latest.clonedTokens, fragmentTokens: latest.fragmentTokens }, parseBudget(Number(cloneBudget).toFixed(6)));
+  return exceedsBudget({ clonedTokens: latest.unwaivedClonedTokens, fragmentTokens: latest.fragmentTokens }, parseBudget(Number(cloneBudget).toFixed(6)));
+}
+
+/** cloned / total, 0 without tokens, null without figures. */
+function ratio(cloned: number | null, total: number | null): number | null {
+  if (cloned === null || total === null) return null;
+  return total === 0 ? 0 : cloned / total;
 }
 
 /** A repository with its settings and where its latest snapshot stands against the budget. */
@@ -21,6 +28,7 @@ export function presentRepository(repository: Repository, latest: LatestSnapshot
     id: latest.id,
     label: latest.label,
     cloneRatio: latest.cloneRatio,
+    unwaivedCloneRatio: ratio(latest.unwaivedClonedTokens, latest.fragmentTokens),
     createdAt: latest.createdAt.toISOString(),
   };
   return {

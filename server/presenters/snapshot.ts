@@ -10,6 +10,8 @@ export function presentSnapshot(snapshot: Snapshot, metric: SnapshotMetric | nul
     fragmentTokens: Number(metric.fragmentTokens),
     clonedTokens: Number(metric.clonedTokens),
     cloneRatio: metric.cloneRatio,
+    unwaivedClonedTokens: Number(metric.unwaivedClonedTokens),
+    unwaivedCloneRatio: Number(metric.fragmentTokens) === 0 ? 0 : Number(metric.unwaivedClonedTokens) / Number(metric.fragmentTokens),
     pairCount: metric.pairCount,
     classCount: metric.classCount,
     type1Pairs: metric.type1Pairs,

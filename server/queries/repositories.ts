@@ -26,16 +26,24 @@ export interface LatestSnapshot {
   /** tokens inside fragments, and those in at least one clone pair (null only without figures) */
   fragmentTokens: number | null;
   clonedTokens: number | null;
+  /** cloned tokens without the classes whose lineage is waived (the budget verdict's figure) */
+  unwaivedClonedTokens: number | null;
   createdAt: Date;
 }
 
 /** The latest ready snapshot of each of the repositories, by repository id (absent: none ready). */
 export async function latestReadySnapshots(repositoryIds: number[]): Promise<Map<number, LatestSnapshot>> {
-  type Row = Omit<LatestSnapshot, 'fragmentTokens' | 'clonedTokens'> & { repositoryId: number; fragmentTokens: string | null; clonedTokens: string | null };
+  type Row = Omit<LatestSnapshot, 'fragmentTokens' | 'clonedTokens' | 'unwaivedClonedTokens'> & {
+    repositoryId: number;
+    fragmentTokens: string | null;
+    clonedTokens: string | null;
+    unwaivedClonedTokens: string | null;
+  };
   const rows = await select<Row>(
     undefined,
     `select distinct on (s.repository_id) s.repository_id as "repositoryId", s.id, s.label, s.clone_ratio as "cloneRatio",
-            m.fragment_tokens as "fragmentTokens", m.cloned_tokens as "clonedTokens", s.created_at as "createdAt"
+            m.fragment_tokens as "fragmentTokens", m.cloned_tokens as "clonedTokens",
+            m.unwaived_cloned_tokens as "unwaivedClonedTokens", s.created_at as "createdAt"
        from snapshots s left join snapshot_metrics m on m.snapshot_id = s.id
       where s.status = 'ready' and s.repository_id = any($1::int[]) order by s.repository_id, s.id desc`,
     [repositoryIds],
@@ -43,9 +51,9 @@ export async function latestReadySnapshots(repositoryIds: number[]): Promise<Map
   // bigint columns arrive as text
   const count = (value: string | null) => (value === null ? null : Number(value));
   return new Map(
-    rows.map(({ repositoryId, fragmentTokens, clonedTokens, ...rest }) => [
+    rows.map(({ repositoryId, fragmentTokens, clonedTokens, unwaivedClonedTokens, ...rest }) => [
       repositoryId,
-      { ...rest, fragmentTokens: count(fragmentTokens), clonedTokens: count(clonedTokens) },
+      { ...rest, fragmentTokens: count(fragmentTokens), clonedTokens: count(clonedTokens), unwaivedClonedTokens: count(unwaivedClonedTokens) },
     ]),
   );
 }

@@ -104,9 +104,9 @@ export function insertSnapshotMetrics(tx: Transaction, snapshotId: number, m: Sn
   return execute(
     tx,
     `insert into snapshot_metrics (snapshot_id, fragment_tokens, cloned_tokens, clone_ratio, pair_count, class_count,
-       type1_pairs, type2_pairs, type3_pairs, cross_pair_count, new_class_count, drifted_class_count, gone_class_count)
-     values ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13)`,
+       type1_pairs, type2_pairs, type3_pairs, cross_pair_count, new_class_count, drifted_class_count, gone_class_count, unwaived_cloned_tokens)
+     values ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14)`,
     [snapshotId, m.fragmentTokens, m.clonedTokens, m.cloneRatio, m.pairCount, m.classCount, m.type1Pairs, m.type2Pairs, m.type3Pairs,
-      m.crossPairCount, m.newClassCount, m.driftedClassCount, m.goneClassCount],
+      m.crossPairCount, m.newClassCount, m.driftedClassCount, m.goneClassCount, m.unwaivedClonedTokens],
   );
 }

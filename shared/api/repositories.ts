@@ -49,6 +49,8 @@ export interface LatestSnapshotDTO {
   id: number;
   label: string;
   cloneRatio: number | null;
+  /** the clone ratio without the classes whose lineage is waived (what the budget verdict uses) */
+  unwaivedCloneRatio: number | null;
   createdAt: string;
 }
 
@@ -64,7 +66,7 @@ export interface RepositoryDTO {
   cloneBudget: number | null;
   createdAt: string;
   latestSnapshot: LatestSnapshotDTO | null;
-  /** true when the latest snapshot's clone ratio is above the budget */
+  /** true when the latest snapshot's unwaived clone ratio is above the budget */
   overBudget: boolean;
 }
 

@@ -38,6 +38,10 @@ export interface SnapshotMetricsDTO {
   fragmentTokens: number;
   clonedTokens: number;
   cloneRatio: number;
+  /** cloned tokens without the classes whose lineage is waived */
+  unwaivedClonedTokens: number;
+  /** the clone ratio without the classes whose lineage is waived */
+  unwaivedCloneRatio: number;
   pairCount: number;
   classCount: number;
   type1Pairs: number;
