@@ -1,4 +1,4 @@
-import { CLASS_STATUSES, type CloneClassDetailDTO, type CloneClassSummaryDTO, type GoneClassDTO, type SnapshotComparisonDTO, type SnapshotDTO, type SnapshotMetricsDTO } from '../../shared/api/snapshots';
+import { CLASS_STATUSES, type ClassWaiverDTO, type CloneClassDetailDTO, type CloneClassSummaryDTO, type GoneClassDTO, type SnapshotComparisonDTO, type SnapshotDTO, type SnapshotMetricsDTO } from '../../shared/api/snapshots';
 import type { FragmentPair } from '../clone-index/snapshot-pairs';
 import type { ClassRow, MemberRow } from '../queries/classes';
 import type { Snapshot } from '../models/Snapshot';
@@ -57,7 +57,14 @@ export function presentCloneClass(row: ClassRow): CloneClassSummaryDTO {
     status: row.status,
     lineageId: row.lineageId,
     paths: row.paths,
+    waiver: row.waiver && presentWaiver(row.waiver),
+    waiverEnded: row.waiverEnded,
   };
+}
+
+/** A lineage's active waiver as class views show it. */
+export function presentWaiver(row: { reason: string; untilLabel: string | null; createdByName: string | null; createdAt: Date | string }): ClassWaiverDTO {
+  return { reason: row.reason, untilLabel: row.untilLabel, createdByName: row.createdByName, createdAt: new Date(row.createdAt).toISOString() };
 }
 
 /** A previous class that no current class continues. */

@@ -6,8 +6,11 @@ import { clonePairsWithin, type FragmentPair, type SnapshotFragment } from '../c
 import { select } from '../clone-index/sql';
 import { parseThreshold } from '../matching/threshold';
 
-/** A class row with its member paths, as lists show it: the columns the API's summary has. */
+/** A class row with its member paths, as lists show it: the columns the API's summary has (dates as PostgreSQL's JSON text). */
 export type ClassRow = CloneClassSummaryDTO;
+
+/** Whether the class's lineage has an active waiver. */
+const WAIVED = 'exists (select 1 from waivers w where w.lineage_id = c.lineage_id and w.ended_at is null)';
 
 const SORT_COLUMNS: Record<ClassListQuery['sort'], string> = {
   size: 'c.size',
@@ -19,13 +22,19 @@ const SORT_COLUMNS: Record<ClassListQuery['sort'], string> = {
 const CLASS_COLUMNS = `c.id, c.snapshot_id as "snapshotId", c.size, c.tokens, c.min_similarity as "minSimilarity",
   c.max_similarity as "maxSimilarity", c.clone_type as "cloneType", c.language, c.status, c.lineage_id as "lineageId",
   (select array_agg(distinct sf.path) from clone_class_members m join snapshot_files sf on sf.id = m.snapshot_file_id
-    where m.class_id = c.id) as paths`;
+    where m.class_id = c.id) as paths,
+  (select json_build_object('reason', w.reason, 'untilLabel', w.until_label, 'createdByName', u.name, 'createdAt', w.created_at)
+     from waivers w left join users u on u.id = w.created_by where w.lineage_id = c.lineage_id and w.ended_at is null) as waiver,
+  (select json_build_object('reason', w.ended_reason, 'snapshotLabel', es.label)
+     from waivers w join snapshots es on es.id = w.ended_snapshot_id
+    where w.lineage_id = c.lineage_id and w.ended_snapshot_id = c.snapshot_id order by w.ended_at desc, w.id desc limit 1) as "waiverEnded"`;
 
 /**
  * One page of a snapshot's classes, sorted and filtered in SQL. The path filter matches any
- * member whose path contains the text (case-insensitive).
+ * member whose path contains the text (case-insensitive); waivedCount counts the waived classes
+ * the other filters match.
  */
-export async function listSnapshotClasses(snapshotId: number, query: ClassListQuery): Promise<{ rows: ClassRow[]; total: number }> {
+export async function listSnapshotClasses(snapshotId: number, query: ClassListQuery): Promise<{ rows: ClassRow[]; total: number; waivedCount: number }> {
   const where = ['c.snapshot_id = $1'];
   const bind: unknown[] = [snapshotId];
   const add = (sql: string, value: unknown) => {
@@ -42,8 +51,15 @@ export async function listSnapshotClasses(snapshotId: number, query: ClassListQu
       query.path,
     );
   }
+  const [counts] = await select<{ all: number; waived: number }>(
+    undefined,
+    `select count(*)::int as "all", (count(*) filter (where ${WAIVED}))::int as waived from clone_classes c where ${where.join(' and ')}`,
+    bind,
+  );
+  if (query.waived === 'only') where.push(WAIVED);
+  if (query.waived === 'exclude') where.push(`not ${WAIVED}`);
+  const total = query.waived === 'only' ? counts.waived : query.waived === 'exclude' ? counts.all - counts.waived : counts.all;
   const filter = where.join(' and ');
-  const [{ total }] = await select<{ total: number }>(undefined, `select count(*)::int as total from clone_classes c where ${filter}`, bind);
   const order = `${SORT_COLUMNS[query.sort]} ${query.order === 'asc' ? 'asc' : 'desc'}, c.ordinal asc`;
   const rows = await select<ClassRow>(
     undefined,
@@ -51,7 +67,7 @@ export async function listSnapshotClasses(snapshotId: number, query: ClassListQu
       limit ${query.pageSize} offset ${(query.page - 1) * query.pageSize}`,
     bind,
   );
-  return { rows: rows.map(sortPaths), total };
+  return { rows: rows.map(sortPaths), total, waivedCount: counts.waived };
 }
 
 const sortPaths = <T extends ClassRow>(row: T): T => ({ ...row, paths: [...(row.paths ?? [])].sort().slice(0, 5) });

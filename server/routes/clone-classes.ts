@@ -1,13 +1,14 @@
-import { idParamsSchema } from '../../shared/api/snapshots';
+import { idParamsSchema, waiveClassSchema, type WaiverCreatedDTO } from '../../shared/api/snapshots';
 import { currentUser } from '../auth/current-user';
+import { liftLineageWaiver, waiveLineage } from '../commands/waivers';
 import { found } from '../errors';
 import { authorize } from '../policies';
-import { presentCloneClassDetail } from '../presenters/snapshot';
+import { presentCloneClassDetail, presentWaiver } from '../presenters/snapshot';
 import { classMembers, findClass } from '../queries/classes';
 import { defineRoutes } from './define';
 import { parse } from './validate';
 
-/** /api/clone-classes: one class with its members' code, for the side-by-side view. */
+/** /api/clone-classes: one class with its members' code, for the side-by-side view; a lead's waiver of its lineage. */
 export const cloneClassRoutes = defineRoutes('/clone-classes', [
   {
     method: 'get',
@@ -20,6 +21,32 @@ export const cloneClassRoutes = defineRoutes('/clone-classes', [
       authorize(currentUser(req), 'cloneClasses.read', row);
       const { members, pairs } = await classMembers(id, row.threshold);
       res.json(presentCloneClassDetail(row, members, pairs));
+    },
+  },
+  {
+    method: 'post',
+    path: '/:id/waiver',
+    guard: 'cloneClasses.waive',
+    handler: async (req, res) => {
+      const { id } = parse(idParamsSchema, req.params);
+      const input = parse(waiveClassSchema, req.body);
+      const row = found(await findClass(currentUser(req).organisationId, id), 'Clone class');
+      authorize(currentUser(req), 'cloneClasses.waive', row);
+      const waiver = await waiveLineage(row, { reason: input.reason, untilLabel: input.untilLabel ?? null, createdBy: currentUser(req).id });
+      const answer: WaiverCreatedDTO = { waiver: presentWaiver(waiver) };
+      res.status(201).json(answer);
+    },
+  },
+  {
+    method: 'delete',
+    path: '/:id/waiver',
+    guard: 'cloneClasses.waive',
+    handler: async (req, res) => {
+      const { id } = parse(idParamsSchema, req.params);
+      const row = found(await findClass(currentUser(req).organisationId, id), 'Clone class');
+      authorize(currentUser(req), 'cloneClasses.waive', row);
+      await liftLineageWaiver(row);
+      res.status(204).end();
     },
   },
 ]);

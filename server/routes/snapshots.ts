@@ -32,8 +32,8 @@ export const snapshotRoutes = defineRoutes('/snapshots', [
       const query = parse(classListQuerySchema, req.query);
       const { repository } = found(await findSnapshot(currentUser(req).organisationId, id), 'Snapshot');
       authorize(currentUser(req), 'cloneClasses.read', repository);
-      const { rows, total } = await listSnapshotClasses(id, query);
-      const answer: CloneClassPageDTO = { classes: rows.map(presentCloneClass), total, page: query.page, pageSize: query.pageSize };
+      const { rows, total, waivedCount } = await listSnapshotClasses(id, query);
+      const answer: CloneClassPageDTO = { classes: rows.map(presentCloneClass), total, waivedCount, page: query.page, pageSize: query.pageSize };
       res.json(answer);
     },
   },

@@ -22,6 +22,8 @@ export const classListQuerySchema = z.object({
   language: z.string().max(40).optional(),
   path: z.string().max(300, 'A path filter has at most 300 characters.').optional(),
   status: z.enum(CLASS_STATUSES).optional(),
+  /** only the waived classes, or all but them (absent: both) */
+  waived: z.enum(['only', 'exclude']).optional(),
   page: z.coerce.number().int().min(1).default(1),
   pageSize: z.coerce.number().int().min(1).max(200, 'At most 200 a page.').default(50),
 });
@@ -94,12 +96,43 @@ export interface CloneClassSummaryDTO {
   lineageId: number;
   /** the members' paths, for the list (at most five) */
   paths: string[];
+  /** the lineage's active waiver: the class is left out of the budget verdict */
+  waiver: ClassWaiverDTO | null;
+  /** the lineage's last waiver, when it ended by itself in this class's snapshot (a new member joined) */
+  waiverEnded: { reason: string; snapshotLabel: string } | null;
+}
+
+/** A lead's waiver of a class lineage, as class views show it. */
+export interface ClassWaiverDTO {
+  reason: string;
+  /** "until release …", as the lead wrote it */
+  untilLabel: string | null;
+  /** null once that user is deleted */
+  createdByName: string | null;
+  createdAt: string;
+}
+
+/** Body of POST /api/clone-classes/:id/waiver. */
+export const waiveClassSchema = z
+  .object({
+    reason: z.string().trim().min(1, 'A waiver needs a reason.').max(500, 'A reason has at most 500 characters.'),
+    untilLabel: z.string().trim().min(1, 'Leave "until release" out, or name the release.').max(100, 'A release label has at most 100 characters.').optional(),
+  })
+  .strict();
+/** Parsed waiver body. */
+export type WaiveClassInput = z.infer<typeof waiveClassSchema>;
+
+/** POST /api/clone-classes/:id/waiver. */
+export interface WaiverCreatedDTO {
+  waiver: ClassWaiverDTO;
 }
 
 /** GET /api/snapshots/:id/classes. */
 export interface CloneClassPageDTO {
   classes: CloneClassSummaryDTO[];
   total: number;
+  /** how many of the classes the other filters match are waived (whatever the waived filter says) */
+  waivedCount: number;
   page: number;
   pageSize: number;
 }

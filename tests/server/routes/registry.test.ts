@@ -34,6 +34,7 @@ const VALID_BODIES: Record<string, (role: Role) => object> = {
   'POST /api/repositories': (role) => ({ name: `registry-${role}-${Date.now()}` }),
   'POST /api/find-copies': () => ({ language: 'typescript', text: 'function weighWagon(axles: number) { return axles * 2; }' }),
   'POST /api/tokens': () => ({ name: 'Registry check', repositoryId: 2147483647 }),
+  'POST /api/clone-classes/:id/waiver': () => ({ reason: 'Registry check' }),
 };
 
 const routes = registeredRoutes();

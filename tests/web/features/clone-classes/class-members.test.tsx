@@ -17,6 +17,7 @@ function detail(members: CloneClassMemberDTO[], pairs: CloneClassDetailDTO['pair
   return {
     id: 9, snapshotId: 2, size: members.length, tokens: 180, minSimilarity: 0.8, maxSimilarity: 1, cloneType: 3,
     language: 'javascript', status: 'drifted', lineageId: 4, paths: members.map((m) => m.path), repositoryId: 1, snapshotLabel: 'v2',
+    waiver: null, waiverEnded: null,
     members, pairs,
   };
 }
