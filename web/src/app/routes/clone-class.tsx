@@ -1,4 +1,5 @@
 import { Link, useParams } from 'react-router-dom';
+import { can } from '@shared/permissions';
 import type { CloneClassDetailDTO } from '@shared/api/snapshots';
 import { QueryState } from '@/components/data-state';
 import { PageHeader } from '@/components/page-header';
@@ -7,10 +8,13 @@ import { formatSimilarity } from '@/lib/format';
 import { useCloneClass } from '@/features/clone-classes/api/get-clone-class';
 import { ClassMembers, ClassPairs } from '@/features/clone-classes/components/class-members';
 import { StatusBadge } from '@/features/clone-classes/components/status-badge';
+import { ClassWaiver } from '@/features/clone-classes/components/class-waiver';
+import { useSession } from '@/features/auth/api/get-session';
 import { useRepository } from '@/features/repositories/api/get-repository';
 
 function CloneClassPage({ detail }: { detail: CloneClassDetailDTO }) {
   const repository = useRepository(detail.repositoryId);
+  const role = useSession().data?.user?.role;
   const similarity =
     detail.minSimilarity === detail.maxSimilarity
       ? formatSimilarity(detail.minSimilarity)
@@ -41,6 +45,7 @@ function CloneClassPage({ detail }: { detail: CloneClassDetailDTO }) {
             </span>
           }
         />
+        <ClassWaiver detail={detail} mayWaive={role !== undefined && can(role, 'cloneClasses.waive')} />
       </div>
       <ClassMembers detail={detail} />
       {detail.pairs.length > 1 ? (

@@ -19,6 +19,7 @@ function SnapshotFigures({ snapshot }: { snapshot: SnapshotDTO }) {
   const m = snapshot.metrics;
   const figures: [string, string][] = [
     ['clone ratio', formatPercent(m?.cloneRatio ?? snapshot.cloneRatio)],
+    ['unwaived', m ? formatPercent(m.unwaivedCloneRatio) : '—'],
     ['files', String(snapshot.fileCount)],
     ['fragments', String(snapshot.fragmentCount)],
     ['clone pairs', m ? String(m.pairCount) : '—'],
@@ -88,7 +89,7 @@ export function SnapshotRoute() {
       </Panel>
       <Panel title="Clone classes">
         <div className="space-y-3">
-          <ClassFilters query={query} languages={languages} onChange={setQuery} />
+          <ClassFilters query={query} languages={languages} waivedCount={classes.data?.waivedCount} onChange={setQuery} />
           {classes.data ? (
             <>
               {classes.data.classes.length === 0 ? (

@@ -5,16 +5,19 @@ import { SelectField, TextField } from '@/components/field';
 import type { ClassFilterChange } from '@/features/clone-classes/lib/class-filters';
 
 /**
- * Type, language, status and path filters of the class list. Selects apply at once; the path
+ * Type, language, status, waived and path filters of the class list. Selects apply at once; the path
  * applies on Enter or "Filter", so the URL does not change on every keystroke.
  */
 export function ClassFilters({
   query,
   languages,
+  waivedCount,
   onChange,
 }: {
   query: ClassListQuery;
   languages: string[];
+  /** how many of the classes the other filters match are waived (unknown while loading) */
+  waivedCount?: number;
   onChange: (change: ClassFilterChange) => void;
 }) {
   const [path, setPath] = useState(query.path ?? '');
@@ -29,10 +32,10 @@ export function ClassFilters({
     event.preventDefault();
     onChange({ path: path.trim() || undefined });
   };
-  const filtered = query.type !== undefined || query.language !== undefined || query.status !== undefined || query.path !== undefined;
+  const filtered = query.type !== undefined || query.language !== undefined || query.status !== undefined || query.waived !== undefined || query.path !== undefined;
 
   return (
-    <form onSubmit={submit} role="search" aria-label="Filter clone classes" className="grid items-end gap-2 sm:grid-cols-[7rem_9rem_9rem_1fr_auto]">
+    <form onSubmit={submit} role="search" aria-label="Filter clone classes" className="grid items-end gap-2 sm:grid-cols-[7rem_9rem_9rem_9rem_1fr_auto]">
       <SelectField
         label="Type"
         value={query.type ?? ''}
@@ -63,6 +66,15 @@ export function ClassFilters({
           </option>
         ))}
       </SelectField>
+      <SelectField
+        label={waivedCount === undefined ? 'Waived' : `Waived (${waivedCount})`}
+        value={query.waived ?? ''}
+        onChange={(e) => onChange({ waived: (e.target.value || undefined) as ClassListQuery['waived'] })}
+      >
+        <option value="">included</option>
+        <option value="only">only waived</option>
+        <option value="exclude">left out</option>
+      </SelectField>
       <TextField label="Path contains" value={path} onChange={(e) => setPath(e.target.value)} placeholder="billing/" className="font-mono" />
       <div className="flex gap-2">
         <Button type="submit" variant="secondary">
@@ -71,7 +83,7 @@ export function ClassFilters({
         {filtered ? (
           <Button
             variant="secondary"
-            onClick={() => onChange({ type: undefined, language: undefined, status: undefined, path: undefined })}
+            onClick={() => onChange({ type: undefined, language: undefined, status: undefined, waived: undefined, path: undefined })}
           >
             Clear
           </Button>

@@ -2,6 +2,7 @@ import { Link } from 'react-router-dom';
 import clsx from 'clsx';
 import type { ClassListQuery, CloneClassSummaryDTO } from '@shared/api/snapshots';
 import { formatSimilarity } from '@/lib/format';
+import { WaivedBadge } from './class-waiver';
 import { StatusBadge } from './status-badge';
 
 type SortColumn = ClassListQuery['sort'];
@@ -76,6 +77,11 @@ export function CloneClassTable({
             </td>
             <td className="py-1.5 pr-2">
               <StatusBadge status={c.status} />
+              {c.waiver ? (
+                <span className="ml-1">
+                  <WaivedBadge reason={c.waiver.reason} />
+                </span>
+              ) : null}
             </td>
             <td className="py-1.5 pr-2 font-mono">{c.cloneType}</td>
             <td className="py-1.5 pr-2 text-right font-mono tabular-nums">{c.size}</td>

@@ -7,7 +7,7 @@
 import { classListQuerySchema, type ClassListQuery } from '@shared/api/snapshots';
 
 /** Every parameter, in the order they are written. */
-const KEYS = ['sort', 'order', 'type', 'language', 'path', 'status', 'page', 'pageSize'] as const;
+const KEYS = ['sort', 'order', 'type', 'language', 'path', 'status', 'waived', 'page', 'pageSize'] as const;
 
 /** The list query with nothing chosen: the server's defaults. */
 export const DEFAULT_CLASS_QUERY: ClassListQuery = classListQuerySchema.parse({});
