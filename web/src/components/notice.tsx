@@ -4,7 +4,7 @@ import clsx from 'clsx';
 const TONES = {
   error: 'border-danger/40 bg-danger-soft text-danger',
   info: 'border-accent/30 bg-accent-soft text-accent-strong',
-  warning: 'border-amber/40 bg-amber-soft text-amber',
+  warning: 'border-amber/40 bg-amber-soft text-amber-strong',
 } as const;
 
 /** A one-line message box (errors from the API, confirmations). */

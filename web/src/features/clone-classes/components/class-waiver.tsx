@@ -10,7 +10,7 @@ import { useCloneClassWaiver } from '@/features/clone-classes/api/waive-clone-cl
 /** The badge a waived class carries, with the lead's reason as its title. */
 export function WaivedBadge({ reason }: { reason: string }) {
   return (
-    <span title={reason} className="rounded-sm border border-amber/40 bg-amber-soft px-1.5 py-0.5 text-[11px] font-semibold text-amber">
+    <span title={reason} className="rounded-sm border border-amber/40 bg-amber-soft px-1.5 py-0.5 text-[11px] font-semibold text-amber-strong">
       waived
     </span>
   );

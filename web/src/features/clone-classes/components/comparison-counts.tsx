@@ -43,7 +43,7 @@ export function ComparisonCounts({
             'block w-full rounded-sm border px-2 py-1.5 text-left',
             selected ? 'border-accent bg-accent-soft text-accent-strong' : 'border-line bg-white',
             count === 0 && !selected && 'text-muted',
-            status === 'drifted' && count > 0 && !selected && 'border-amber/50 text-amber',
+            status === 'drifted' && count > 0 && !selected && 'border-amber/50 text-amber-strong',
           );
           return (
             <li key={status}>

@@ -17,7 +17,7 @@ function MemberHeader({ member }: { member: CloneClassMemberDTO }) {
         </span>
         {/* No opposite label: the API's `changed` is also false for a member that is new in this release. */}
         {member.changed ? (
-          <span className="shrink-0 rounded-sm bg-amber-soft px-1.5 py-0.5 font-mono text-[11px] leading-none text-amber" title="Its code differs from the previous snapshot">
+          <span className="shrink-0 rounded-sm bg-amber-soft px-1.5 py-0.5 font-mono text-[11px] leading-none text-amber-strong" title="Its code differs from the previous snapshot">
             changed since last release
           </span>
         ) : null}

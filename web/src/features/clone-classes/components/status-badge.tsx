@@ -4,7 +4,7 @@ import type { ClassStatus } from '@shared/api/snapshots';
 /** Colour only where it asks for attention: drifted (a fix may have missed a copy) and new. */
 export const STATUS_TONES: Record<ClassStatus | 'gone', string> = {
   new: 'bg-accent-soft text-accent-strong',
-  drifted: 'bg-amber-soft text-amber',
+  drifted: 'bg-amber-soft text-amber-strong',
   grown: 'bg-danger-soft text-danger',
   shrunk: 'bg-paper text-accent-strong border border-line',
   edited: 'bg-paper text-ink border border-line',

@@ -7,7 +7,7 @@ import { useRepositorySnapshots } from '@/features/repositories/api/get-reposito
 
 const STATUS_TONES: Record<SnapshotDTO['status'], string> = {
   ready: 'text-accent',
-  running: 'text-amber',
+  running: 'text-amber-strong',
   pending: 'text-muted',
   failed: 'text-danger',
 };
