@@ -16,6 +16,7 @@ import {
   findFunction, isNode, isSimpleStatement, newExpression, newStatement, parseStrict, readsAndWrites,
   recastParser, statementLists, variablesOf, walk, type Node, type Snippet, type StatementList, type Variables,
 } from './syntax';
+import { pick, pickSome } from './pick';
 
 /** The JavaScript/TypeScript edit kinds, in the order the tables print them. */
 export const JS_EDIT_KINDS = [
@@ -254,18 +255,6 @@ function treeEdit(snippet: Snippet, random: () => number, edit: (e: TreeEdit) =>
   const skipped = edit({ root, fn, random, variables: variablesOf(fn, root), splices: [], text: snippet.text });
   if (skipped) return { skipped };
   return { text: recast.print(root).code };
-}
-
-function pick<T>(items: readonly T[], random: () => number): T {
-  return items[Math.floor(random() * items.length)]!;
-}
-
-/** A few distinct items in random order. */
-function pickSome<T>(items: readonly T[], count: number, random: () => number): T[] {
-  const pool = [...items];
-  const out: T[] = [];
-  while (out.length < count && pool.length > 0) out.push(pool.splice(Math.floor(random() * pool.length), 1)[0]!);
-  return out;
 }
 
 const NEW_NAMES = [

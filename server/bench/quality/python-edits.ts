@@ -8,6 +8,7 @@ import fs from 'node:fs';
 import { createRequire } from 'node:module';
 import { Language, Parser, type Node } from 'web-tree-sitter';
 import type { EditResult } from './js-edits';
+import { pick, pickSome } from './pick';
 
 /** The Python edit kinds, in the order the tables print them. */
 export const PY_EDIT_KINDS = ['layout', 'rename-one', 'rename-all', 'literals', 'insert-1', 'insert-5', 'delete-1', 'reorder-2'] as const;
@@ -127,17 +128,6 @@ function findDef(root: Node, row: number): Node | undefined {
 
 function descendants(node: Node, type: string): Node[] {
   return node.descendantsOfType(type).filter((n): n is Node => n !== null);
-}
-
-function pick<T>(items: readonly T[], random: () => number): T {
-  return items[Math.floor(random() * items.length)]!;
-}
-
-function pickSome<T>(items: readonly T[], count: number, random: () => number): T[] {
-  const pool = [...items];
-  const out: T[] = [];
-  while (out.length < count && pool.length > 0) out.push(pool.splice(Math.floor(random() * pool.length), 1)[0]!);
-  return out;
 }
 
 /** Start of the line that holds `index`. */
