@@ -10,6 +10,7 @@ import type { SnapshotSettings } from '../models/Snapshot';
 import { analysisOutcomes, findAnalyses, storeAnalyses, storeContents, storeSnapshotFiles, type SnapshotFileRow } from '../queries/files';
 import { findSnapshotByLabel, insertRunningSnapshot, markSnapshotFailed, markSnapshotReady } from '../queries/snapshots';
 import { deriveClones } from './deriveClones';
+import { settleTasks } from './settleTasks';
 
 /** What to load: a repository's files at one release. */
 export interface LoadSnapshotInput {
@@ -137,6 +138,7 @@ async function loadInto(tx: Transaction, snapshotId: number, input: LoadSnapshot
 
   // 5. clone pairs, classes, clone ratio, comparison with the previous snapshot
   const derived = await deriveClones(tx, snapshotId, input.repository);
+  await settleTasks(tx, snapshotId, input.repository.id); // refactor tasks whose copies are gone, or back (commands/settleTasks.ts)
   lap('classes');
 
   const counts = {
