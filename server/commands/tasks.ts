@@ -26,14 +26,15 @@ const NOT_ASSIGNABLE = 'The assignee must be an active engineer, lead or admin o
 /**
  * Creates a refactor task on a clone class's lineage, assigned to an active engineer (or above) of
  * the organisation, and mails the assignee. A lineage has at most one active task, and its copies
- * must still be in the repository's latest snapshot.
+ * must still be in the repository's latest snapshot (`allowGoneCopies` lifts that for the demo seed,
+ * which shows a task the automatic check closed).
  *
  * @throws ValidationError (assigneeId) for someone who cannot be assigned
  * @throws ConflictError when the lineage already has an active task or its copies are gone
  */
-export async function createTask(actor: User, cloneClass: ClassDetailRow, input: CreateTaskInput): Promise<number> {
+export async function createTask(actor: User, cloneClass: ClassDetailRow, input: CreateTaskInput, options: { allowGoneCopies?: boolean } = {}): Promise<number> {
   const latest = await lineageInLatestSnapshot(cloneClass.lineageId, cloneClass.repositoryId);
-  if (!latest.present) {
+  if (!latest.present && !options.allowGoneCopies) {
     throw new ConflictError(
       latest.label
         ? `The copies of this class are gone from the latest snapshot (${latest.label}): there is nothing left to refactor.`

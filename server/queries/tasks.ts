@@ -361,3 +361,52 @@ export async function snapshotLabel(tx: Transaction, snapshotId: number): Promis
   const [row] = await select<{ label: string }>(tx, 'select label from snapshots where id = $1', [snapshotId]);
   return row?.label ?? `#${snapshotId}`;
 }
+
+/**
+ * The classes of the latest ready snapshot of each repository of the organisation, by repository
+ * name then class order, with their first member's name (what the demo seeds tasks on).
+ */
+export function latestClassesOfOrganisation(organisationId: string, limit: number): Promise<{ id: number; size: number; memberName: string }[]> {
+  return select(
+    undefined,
+    `with latest as (
+       select distinct on (s.repository_id) s.id, r.name as repository_name
+         from snapshots s join repositories r on r.id = s.repository_id
+        where r.organisation_id = $1 and s.status = 'ready' order by s.repository_id, s.id desc)
+     select c.id, c.size,
+            (select f.name from clone_class_members m join snapshot_files sf on sf.id = m.snapshot_file_id join fragments f on f.id = m.fragment_id
+              where m.class_id = c.id order by sf.path, f.start_line limit 1) as "memberName"
+       from latest l join clone_classes c on c.snapshot_id = l.id
+      order by l.repository_name, c.ordinal
+      limit $2`,
+    [organisationId, limit],
+  );
+}
+
+/**
+ * Classes of each repository's ready snapshot before its latest whose lineage the latest snapshot
+ * no longer has (copies merged or removed), by repository name then class order, with their first
+ * member's name and the latest snapshot (what the demo's automatically done task is seeded on).
+ */
+export function goneClassesOfOrganisation(
+  organisationId: string,
+  limit: number,
+): Promise<{ id: number; size: number; memberName: string; repositoryId: number; latestSnapshotId: number }[]> {
+  return select(
+    undefined,
+    `with ranked as (
+       select s.id, s.repository_id, r.name as repository_name, row_number() over (partition by s.repository_id order by s.id desc) as n
+         from snapshots s join repositories r on r.id = s.repository_id
+        where r.organisation_id = $1 and s.status = 'ready'),
+     pairs as (select p.id as previous_id, l.id as latest_id, l.repository_id, l.repository_name
+                 from ranked l join ranked p on p.repository_id = l.repository_id and l.n = 1 and p.n = 2)
+     select c.id, c.size, x.repository_id as "repositoryId", x.latest_id as "latestSnapshotId",
+            (select f.name from clone_class_members m join snapshot_files sf on sf.id = m.snapshot_file_id join fragments f on f.id = m.fragment_id
+              where m.class_id = c.id order by sf.path, f.start_line limit 1) as "memberName"
+       from pairs x join clone_classes c on c.snapshot_id = x.previous_id
+      where not exists (select 1 from clone_classes n where n.snapshot_id = x.latest_id and n.lineage_id = c.lineage_id)
+      order by x.repository_name, c.ordinal
+      limit $2`,
+    [organisationId, limit],
+  );
+}
