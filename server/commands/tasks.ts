@@ -14,6 +14,7 @@ import {
   insertTaskComment,
   insertTaskEvents,
   lineageInLatestSnapshot,
+  lockTask,
   TASK_COMMENT_LIMIT,
   updateTask,
   type NewTaskEvent,
@@ -84,7 +85,8 @@ export async function changeTask(actor: User, task: TaskRow, input: UpdateTaskIn
     }
   }
   await db().transaction(async (tx) => {
-    // re-read under the transaction so two changes at once each see the other's result
+    // re-read under a lock, so two changes at once each see the other's result
+    await lockTask(tx, task.id);
     const current = (await findTask(actor.organisationId, task.id, tx))!;
     const changes: TaskChanges = {};
     const events: NewTaskEvent[] = [];

@@ -125,7 +125,7 @@ export interface NewTask {
  * both open a task on one lineage.
  */
 export async function insertTask(tx: Transaction, task: NewTask): Promise<number | undefined> {
-  await execute(tx, 'select id from class_lineages where id = $1 for update', [task.lineageId]);
+  await execute(tx, 'select id from class_lineages where id = $1 for no key update', [task.lineageId]);
   const [row] = await select<{ id: number }>(
     tx,
     `insert into tasks (organisation_id, repository_id, lineage_id, title, description, assignee_id, created_by, due_on)
@@ -141,6 +141,11 @@ export async function insertTask(tx: Transaction, task: NewTask): Promise<number
 export async function activeTaskOfLineage(tx: Transaction | undefined, lineageId: number): Promise<{ id: number } | undefined> {
   const [row] = await select<{ id: number }>(tx, `select t.id from tasks t where t.lineage_id = $1 and ${ACTIVE} order by t.id desc limit 1`, [lineageId]);
   return row;
+}
+
+/** Locks a task's row until the transaction ends, so two changes at once apply one after the other. */
+export function lockTask(tx: Transaction, id: number): Promise<void> {
+  return execute(tx, 'select id from tasks where id = $1 for update', [id]);
 }
 
 /** The columns a person may change, as stored. */
