@@ -87,6 +87,11 @@ describe('refactor tasks in Chromium', () => {
       await page.getByRole('heading', { name: `#${created.id} ${TITLE}` }).waitFor();
       await page.getByRole('article').first().waitFor();
       await page.getByRole('button', { name: "Won't do…" }).waitFor();
+      // the lead edits the description; the history says so
+      await page.getByRole('button', { name: 'Edit title and description' }).click();
+      await page.getByRole('form', { name: 'Edit task' }).getByLabel('Description').fill('Keep the billing copy; the yard calls it. Delete the yard copy.');
+      await page.getByRole('form', { name: 'Edit task' }).getByRole('button', { name: 'Save' }).click();
+      await expect.poll(() => page.getByRole('list', { name: 'History' }).textContent()).toContain('edited the description');
       expect(await seriousViolations(page)).toEqual([]);
       await page.screenshot({ path: path.join(SCREENSHOTS, 'tasks-task-lead.png'), fullPage: true });
 
@@ -125,6 +130,7 @@ describe('refactor tasks in Chromium', () => {
       await page.goto(`${session.baseUrl}/`);
       const card = page.getByRole('region', { name: 'Your open tasks' });
       await card.getByRole('link', { name: `#${created.id} ${TITLE}` }).waitFor();
+      await page.screenshot({ path: path.join(SCREENSHOTS, 'tasks-overview-engineer.png'), fullPage: true });
 
       // a viewer reads the task, its comment and history, with no button to change it
       await session.context.clearCookies();

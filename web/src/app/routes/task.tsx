@@ -14,6 +14,7 @@ import { ClassMembers } from '@/features/clone-classes/components/class-members'
 import { StatusBadge } from '@/features/clone-classes/components/status-badge';
 import { useTask } from '@/features/tasks/api/get-task';
 import { TaskAssignment } from '@/features/tasks/components/task-assignment';
+import { TaskEditor } from '@/features/tasks/components/task-editor';
 import { TaskComments } from '@/features/tasks/components/task-comments';
 import { TaskHistory } from '@/features/tasks/components/task-history';
 import { TaskStatusActions } from '@/features/tasks/components/task-status-actions';
@@ -78,8 +79,9 @@ function TaskPage({ task }: { task: TaskDetailDTO }) {
         <div className="mt-3 space-y-3">
           <TaskStatusActions key={task.status} task={task} mayWork={mayWork} isLead={isLead} />
           {isLead ? (
-            <div className="max-w-2xl">
+            <div className="max-w-2xl space-y-3">
               <TaskAssignment key={`${task.assignee?.id}-${task.dueOn}`} task={task} />
+              <TaskEditor key={`${task.title}-${task.description}`} task={task} />
             </div>
           ) : null}
         </div>
