@@ -64,7 +64,9 @@ const titleSchema = z
   .string({ error: 'Enter a title.' })
   .trim()
   .min(1, 'Enter a title.')
-  .max(TASK_LIMITS.title, `A title has at most ${TASK_LIMITS.title} characters.`);
+  .max(TASK_LIMITS.title, `A title has at most ${TASK_LIMITS.title} characters.`)
+  // one line: it is also the subject of the notice mails
+  .regex(/^[^\r\n]*$/, 'A title is one line.');
 const descriptionSchema = z
   .string({ error: 'A description is text.' })
   .trim()

@@ -93,6 +93,7 @@ describe('POST /api/tasks', () => {
     const cases: [object, string][] = [
       [{ ...good, title: '   ' }, 'title'],
       [{ ...good, title: 'x'.repeat(201) }, 'title'],
+      [{ ...good, title: 'Merge\nBcc: someone@example.test' }, 'title'],
       [{ ...good, description: 'x'.repeat(5001) }, 'description'],
       [{ ...good, dueOn: '2026-02-30' }, 'dueOn'],
       [{ ...good, dueOn: 'next friday' }, 'dueOn'],
