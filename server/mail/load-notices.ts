@@ -30,6 +30,14 @@ function percent(part: number, whole: number): string {
   return whole === 0 ? '0.00%' : `${((100 * part) / whole).toFixed(2)}%`;
 }
 
+/** A ratio over its budget, with as many decimals as it takes not to read as the budget itself (at most 6). */
+function percentOver(part: number, whole: number, stored: string): string {
+  const value = (100 * part) / whole;
+  let digits = 2;
+  while (digits < 6 && Number(value.toFixed(digits)) <= Number(stored) * 100) digits++;
+  return `${value.toFixed(digits)}%`;
+}
+
 /** "0.050000" → "5%". */
 function budgetPercent(stored: string): string {
   return `${Number((Number(stored) * 100).toFixed(4))}%`;
@@ -63,12 +71,19 @@ export async function queueLoadNotices(tx: Transaction, snapshotId: number): Pro
   if (facts && noticesDue(facts)) await send('load.notices', { snapshotId }, { transaction: tx });
 }
 
+/** The unwaived clone ratio as the notices write it. */
+function unwaivedPercent(facts: LoadNoticeFacts): string {
+  return facts.cloneBudget !== null && isOverBudget(facts)
+    ? percentOver(facts.unwaivedClonedTokens, facts.fragmentTokens, facts.cloneBudget)
+    : percent(facts.unwaivedClonedTokens, facts.fragmentTokens);
+}
+
 /** The lines every load notice starts with: which snapshot, its figures, where to look. */
 function figures(facts: LoadNoticeFacts): string[] {
   return [
     `Repository: ${facts.repositoryName}`,
     `Release: ${facts.label}`,
-    `Clone ratio without waived classes: ${percent(facts.unwaivedClonedTokens, facts.fragmentTokens)}` +
+    `Clone ratio without waived classes: ${unwaivedPercent(facts)}` +
       (facts.cloneBudget === null ? '' : ` (budget ${budgetPercent(facts.cloneBudget)})`),
     `Clone ratio of all clones: ${percent(facts.clonedTokens, facts.fragmentTokens)}`,
     `Clone classes: ${facts.classCount} (${facts.newClassCount} new, ${facts.driftedClassCount} drifted)`,
@@ -87,8 +102,8 @@ function figuresHtml(facts: LoadNoticeFacts): string {
 /** The budget notice to one lead. Figures and links only: never code. */
 export function budgetNotice(user: NoticeRecipient, facts: LoadNoticeFacts): NoticeContent {
   const link = appUrl(`/snapshots/${facts.snapshotId}`);
-  const ratio = percent(facts.unwaivedClonedTokens, facts.fragmentTokens);
   const budget = facts.cloneBudget === null ? '' : budgetPercent(facts.cloneBudget);
+  const ratio = unwaivedPercent(facts);
   const subject = `${facts.repositoryName} ${facts.label} is over its clone budget: ${ratio} (budget ${budget})`;
   const lead = `The snapshot ${facts.label} of ${facts.repositoryName} is over its clone budget: its clone ratio without waived classes is ${ratio}, the budget ${budget}.`;
   return {

@@ -3,7 +3,8 @@ import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { select } from '../../../server/clone-index/sql';
 import { db } from '../../../server/db/connection';
-import { sendLoadNotices } from '../../../server/mail/load-notices';
+import { budgetNotice, isOverBudget, sendLoadNotices } from '../../../server/mail/load-notices';
+import type { LoadNoticeFacts } from '../../../server/queries/notices';
 import { saveNoticeSettings } from '../../../server/queries/notices';
 import { buildRepository, buildTeam, loadFolder, mailTo, RELEASES, useDatabase, useMail } from '../../support';
 
@@ -97,4 +98,35 @@ describe('notices after a load', () => {
     expect(await noticeJobs(snapshotId)).toBe(0);
     expect(await sendLoadNotices(snapshotId)).toEqual({ budget: 0, drift: 0 });
   }, 120_000);
+});
+
+describe('the budget notice’s figures', () => {
+  const facts: LoadNoticeFacts = {
+    snapshotId: 12,
+    label: '2026.10',
+    repositoryId: 3,
+    repositoryName: 'freight-platform',
+    organisationId: '00000000-0000-4000-8000-000000000000',
+    cloneBudget: '0.050000',
+    fragmentTokens: 10_000_000,
+    clonedTokens: 600_000,
+    unwaivedClonedTokens: 500_001,
+    classCount: 4,
+    newClassCount: 1,
+    driftedClassCount: 0,
+  };
+  const lead = { id: 'u', organisationId: facts.organisationId, email: 'ines@brackenfold.example', name: 'Ines Marlow', role: 'lead' };
+
+  it('uses the exact verdict: a ratio right at the budget is not over it', () => {
+    expect(isOverBudget({ ...facts, unwaivedClonedTokens: 500_000 })).toBe(false);
+    expect(isOverBudget(facts)).toBe(true);
+    expect(isOverBudget({ ...facts, cloneBudget: null })).toBe(false);
+  });
+
+  it('writes a ratio just over the budget with the decimals that show it is over', () => {
+    const notice = budgetNotice(lead, facts);
+    expect(notice.subject).toBe('freight-platform 2026.10 is over its clone budget: 5.00001% (budget 5%)');
+    expect(notice.text).toContain('Clone ratio without waived classes: 5.00001% (budget 5%)');
+    expect(notice.text).toContain('Clone ratio of all clones: 6.00%');
+  });
 });
