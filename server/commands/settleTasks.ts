@@ -1,7 +1,7 @@
 import type { Transaction } from 'sequelize';
 import { TASK_STATUS_LABELS } from '../../shared/api/tasks';
 import { sendNotice } from '../mail/notices';
-import { taskDoneAutomaticallyMail, taskReopenedMail } from '../mail/task-templates';
+import { taskAutoChangedNotice } from '../mail/task-notices';
 import {
   autoClosedTasks,
   classMemberKeys,
@@ -14,6 +14,7 @@ import {
   storeClosedMemberKeys,
   type SettledTaskRow,
 } from '../queries/tasks';
+import { taskUrl } from './tasks';
 
 /** What the automatic check did in one load. */
 export interface TaskSettlement {
@@ -109,13 +110,10 @@ async function rememberMembers(tx: Transaction, snapshotId: number, closed: Sett
 /** Tells each assignee, in the load's transaction (the mail goes only if the load commits). */
 async function notify(tx: Transaction, repositoryId: number, label: string, done: SettledTaskRow[], reopened: SettledTaskRow[]): Promise<void> {
   const name = await repositoryName(tx, repositoryId);
-  const facts = (task: SettledTaskRow) => ({ id: task.id, title: task.title, repositoryName: name });
-  for (const task of done) {
+  const changes = [...done.map((task) => ({ task, change: 'done' as const })), ...reopened.map((task) => ({ task, change: 'reopened' as const }))];
+  for (const { task, change } of changes) {
     if (!task.assigneeId) continue;
-    await sendNotice({ kind: 'taskAutoChanged', recipientIds: [task.assigneeId], compose: (user) => taskDoneAutomaticallyMail(user, facts(task), { snapshotLabel: label }) }, tx);
-  }
-  for (const task of reopened) {
-    if (!task.assigneeId) continue;
-    await sendNotice({ kind: 'taskAutoChanged', recipientIds: [task.assigneeId], compose: (user) => taskReopenedMail(user, facts(task), { snapshotLabel: label }) }, tx);
+    const facts = { title: task.title, repositoryName: name, taskUrl: taskUrl(task.id), change, snapshotLabel: label };
+    await sendNotice({ kind: 'taskAutoChanged', recipientIds: [task.assigneeId], compose: (user) => taskAutoChangedNotice(user, facts) }, tx);
   }
 }

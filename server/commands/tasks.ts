@@ -2,8 +2,9 @@ import type { Transaction } from 'sequelize';
 import { isLeadMove, mayMoveTask, TASK_STATUS_LABELS, type CreateTaskInput, type TaskCommentDTO, type UpdateTaskInput } from '../../shared/api/tasks';
 import { db } from '../db/connection';
 import { AuthorizationError, ConflictError, ValidationError } from '../errors';
-import { taskAssignedMail } from '../mail/task-templates';
+import { loadConfig } from '../config';
 import { sendNotice } from '../mail/notices';
+import { taskAssignedNotice } from '../mail/task-notices';
 import type { User } from '../models/User';
 import { allows } from '../policies';
 import type { ClassDetailRow } from '../queries/classes';
@@ -21,6 +22,11 @@ import {
   type TaskChanges,
   type TaskRow,
 } from '../queries/tasks';
+
+/** A task's page under PUBLIC_URL, for the notice mails. */
+export function taskUrl(taskId: number): string {
+  return `${loadConfig().publicUrl.replace(/\/$/, '')}/tasks/${taskId}`;
+}
 
 const NOT_ASSIGNABLE = 'The assignee must be an active engineer, lead or admin of your organisation.';
 
@@ -135,7 +141,8 @@ async function mailAssignee(tx: Transaction, actor: User, taskId: number): Promi
     {
       kind: 'taskAssigned',
       recipientIds: [task.assigneeId],
-      compose: (user) => taskAssignedMail(user, task, { byName: actor.name, dueOn: task.dueOn }),
+      compose: (user) =>
+        taskAssignedNotice(user, { title: task.title, repositoryName: task.repositoryName, taskUrl: taskUrl(task.id), assignedByName: actor.name, dueOn: task.dueOn }),
     },
     tx,
   );

@@ -14,6 +14,7 @@ import { snapshotRoutes } from './snapshots';
 import { outboxRoutes } from './outbox';
 import { apiTokenRoutes } from './tokens';
 import { memberRoutes, taskRoutes } from './tasks';
+import { accountRoutes } from './account';
 
 /** Every resource's routes. Add new router files here; tests read this list. */
 export const ROUTE_GROUPS: RouteGroup[] = [
@@ -29,6 +30,7 @@ export const ROUTE_GROUPS: RouteGroup[] = [
   apiTokenRoutes,
   taskRoutes,
   memberRoutes,
+  accountRoutes,
 ];
 
 /** Every declared API route with its full path and guard (what the route × role tests enumerate). */

@@ -38,7 +38,12 @@ const kindSwitches = Object.fromEntries(
 
 /** Body of PUT /api/account/notices: the kinds to change (others keep their setting). */
 export const noticePreferencesInputSchema = z.strictObject({
-  notices: z.strictObject(kindSwitches, { error: 'notices must be an object of notice kinds and true or false.' }),
+  notices: z.strictObject(kindSwitches, {
+    error: (issue) =>
+      issue.code === 'unrecognized_keys'
+        ? `Unknown notice kind ${issue.keys.map((k) => `"${k}"`).join(', ')}; the kinds are ${NOTICE_KINDS.join(', ')}.`
+        : 'notices must be an object of notice kinds, each true or false.',
+  }),
 });
 
 /** Parsed body of PUT /api/account/notices. */

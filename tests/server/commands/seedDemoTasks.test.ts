@@ -30,7 +30,7 @@ describe('seedDemoTasks', () => {
     expect(tasks.every((t) => t.createdBy === team.lead.id)).toBe(true);
     // the assignments were mailed, as they are through the API
     const mails = await mailTo(team.engineer.email, 3);
-    expect(mails.map((m) => m.subject.split(':')[0]).sort()).toEqual(['Task assigned to you', 'Task assigned to you', 'Your task was done automatically']);
+    expect(mails.map((m) => m.subject.split(':')[0]).sort()).toEqual(['Task assigned to you', 'Task assigned to you', 'Task done by release 2026.11']);
   });
 
   it('seeds nothing without a lead and an engineer', async () => {

@@ -96,9 +96,9 @@ describe('the automatic check of refactor tasks on a load', () => {
     expect(auto.note).toContain('r2');
     // the other lineage still has its class: its task stays open
     expect((await task(lead, dispatchTask)).status).toBe('open');
-    const [doneMail] = await mailTo(team.engineer.email, 3).then((m) => m.filter((x) => x.subject.startsWith('Your task was done automatically')));
-    expect(doneMail.subject).toBe('Your task was done automatically: One axle-load check');
-    expect(doneMail.text).toContain('Snapshot r2');
+    const [doneMail] = await mailTo(team.engineer.email, 3).then((m) => m.filter((x) => x.subject.startsWith('Task done by release')));
+    expect(doneMail.subject).toBe('Task done by release r2: One axle-load check');
+    expect(doneMail.text).toContain(`/tasks/${weighTask}`);
 
     // r3: nothing changes for the weighing copies: the task stays done, with no new entry
     const r3 = await load(repository, 'r3', { 'yard/weigh.js': WEIGH('weighTrain'), ...dispatchPair, 'README.md': 'yard tools' });
@@ -114,8 +114,8 @@ describe('the automatic check of refactor tasks on a load', () => {
     expect(reopened).toMatchObject({ status: 'open', closedBySnapshot: null, lineageId: back.lineageId, cloneClassId: back.id, snapshotLabel: 'r4' });
     expect(reopened.events.at(-1)).toMatchObject({ kind: 'status', automatic: true, actor: null, from: 'Done', to: 'Open' });
     expect(reopened.events.at(-1)!.note).toContain('r4');
-    const reopenedMail = (await mailTo(team.engineer.email, 4)).find((m) => m.subject.startsWith('Your task was reopened'));
-    expect(reopenedMail?.subject).toBe('Your task was reopened: One axle-load check');
+    const reopenedMail = (await mailTo(team.engineer.email, 4)).find((m) => m.subject.startsWith('Task reopened by release'));
+    expect(reopenedMail?.subject).toBe('Task reopened by release r4: One axle-load check');
     expect((await task(lead, dispatchTask)).status).toBe('open');
 
     // a task a person marked done stays done when the copies go and come back

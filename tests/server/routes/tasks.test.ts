@@ -68,7 +68,7 @@ describe('POST /api/tasks', () => {
 
     const [mail] = await mailTo(team.engineer.email);
     expect(mail.subject).toBe('Task assigned to you: Merge the tariff rules');
-    expect(mail.text).toContain(`${team.lead.name} assigned you the refactor task #${task.id}`);
+    expect(mail.text).toContain(`${team.lead.name} assigned you a refactor task in ${repository.name}: "Merge the tariff rules", due on 2031-03-14.`);
     expect(mail.text).toContain(`/tasks/${task.id}`);
 
     const again = await lead.post('/api/tasks').send({ cloneClassId: rule.id, assigneeId: team.engineer.id, title: 'Again' });
