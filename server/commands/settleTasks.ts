@@ -8,6 +8,7 @@ import {
   closeTasksOfGoneLineages,
   insertTaskEvents,
   lastSnapshotsOfLineages,
+  lineagesWithActiveTasks,
   reopenTask,
   repositoryName,
   snapshotLabel,
@@ -32,7 +33,8 @@ export interface TaskSettlement {
  * - every task a load closed that way, untouched by a person since, reopens (status open) when the
  *   new snapshot has its lineage again, or a class holding one of those members (matched by path,
  *   name and occurrence, as lineages match them); the task then follows that class's lineage (the
- *   one sharing most members, ties to the class listed first).
+ *   one sharing most members, ties to the class listed first), unless that lineage already has a
+ *   task to work on (a lineage keeps at most one; the older task then stays done).
  *
  * Each change is a history entry and a notice to the assignee. Cheap when nothing applies: one
  * update and one read, plus the new snapshot's member keys only when some task waits to reopen.
@@ -62,9 +64,12 @@ export async function settleTasks(tx: Transaction, snapshotId: number, repositor
   if (candidates.length > 0) {
     const current = await classMemberKeys(tx, snapshotId);
     const byLineage = new Map(current.map((c) => [c.lineageId, c]));
+    // a lineage keeps at most one task to work on: one that already has it (or got it just now) takes no other
+    const taken = await lineagesWithActiveTasks(tx, repositoryId);
     for (const task of candidates) {
       const target = byLineage.get(task.lineageId) ?? classSharingMost(current, new Set(task.keys));
-      if (!target) continue;
+      if (!target || taken.has(target.lineageId)) continue;
+      taken.add(target.lineageId);
       await reopenTask(tx, task.id, target.lineageId);
       reopened.push(task);
     }

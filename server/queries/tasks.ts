@@ -345,6 +345,12 @@ export async function lastSnapshotsOfLineages(tx: Transaction, lineageIds: numbe
   return new Map(rows.map((r) => [r.lineageId, r.snapshotId]));
 }
 
+/** The lineages of the repository that have a task still to be worked on. */
+export async function lineagesWithActiveTasks(tx: Transaction, repositoryId: number): Promise<Set<number>> {
+  const rows = await select<{ lineageId: number }>(tx, `select distinct t.lineage_id as "lineageId" from tasks t where t.repository_id = $1 and ${ACTIVE}`, [repositoryId]);
+  return new Set(rows.map((r) => r.lineageId));
+}
+
 /** Remembers the members a closed task's lineage last had. */
 export function storeClosedMemberKeys(tx: Transaction, id: number, keys: string[]): Promise<void> {
   return execute(tx, 'update tasks set closed_member_keys = $2 where id = $1', [id, keys]);

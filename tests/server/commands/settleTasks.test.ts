@@ -129,4 +129,25 @@ describe('the automatic check of refactor tasks on a load', () => {
     expect(manual.events.filter((e) => e.automatic)).toEqual([]);
     expect((await task(lead, weighTask)).status).toBe('open');
   });
+
+  it('reopens one task only when the copies of two closed tasks come back as one class', { timeout: SLOW }, async () => {
+    const team = await buildTeam();
+    const repository = await buildRepository({ organisationId: team.organisation.id });
+    const lead = await signedInAgent(app, team.lead);
+    const r1 = await load(repository, 'r1', { 'a/weigh.js': WEIGH('weighTrain'), 'b/weigh.js': WEIGH('weighTrain'), 'c/plan.js': DISPATCH('planSlots'), 'd/plan.js': DISPATCH('planSlots') });
+    const first = await classesOf(lead, r1);
+    const create = async (cloneClassId: number, title: string) =>
+      ((await lead.post('/api/tasks').send({ cloneClassId, assigneeId: team.engineer.id, title }).expect(201)).body as TaskAnswerDTO).task.id;
+    const weighTask = await create(first.get('a/weigh.js,b/weigh.js')!.id, 'Weighing');
+    const planTask = await create(first.get('c/plan.js,d/plan.js')!.id, 'Planning');
+
+    await load(repository, 'r2', { 'a/weigh.js': WEIGH('weighTrain'), 'c/plan.js': DISPATCH('planSlots') });
+    expect([(await task(lead, weighTask)).status, (await task(lead, planTask)).status]).toEqual(['done', 'done']);
+
+    // both returning copies are now the weighing routine: one class holds members of both lineages
+    const r3 = await load(repository, 'r3', { 'a/weigh.js': WEIGH('weighTrain'), 'b/weigh.js': WEIGH('weighTrain'), 'c/plan.js': WEIGH('planSlots'), 'd/plan.js': WEIGH('planSlots') });
+    const merged = (await classesOf(lead, r3)).get('a/weigh.js,b/weigh.js,c/plan.js,d/plan.js')!;
+    expect(await task(lead, weighTask)).toMatchObject({ status: 'open', lineageId: merged.lineageId });
+    expect(await task(lead, planTask)).toMatchObject({ status: 'done', closedBySnapshot: { label: 'r2' } });
+  });
 });
