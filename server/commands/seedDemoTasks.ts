@@ -1,7 +1,7 @@
 import { db } from '../db/connection';
-import { User } from '../models/User';
 import type { Organisation } from '../models/Organisation';
 import { findClass } from '../queries/classes';
+import { listUsers } from '../queries/people';
 import { findTask, goneClassesOfOrganisation, latestClassesOfOrganisation } from '../queries/tasks';
 import { settleTasks } from './settleTasks';
 import { changeTask, commentOnTask, createTask } from './tasks';
@@ -22,7 +22,7 @@ const day = (offsetDays: number) => new Date(Date.now() + offsetDays * 86_400_00
  * what it can: nothing without a lead, an engineer or a class. Returns lines to print.
  */
 export async function seedDemoTasks(organisation: Organisation): Promise<string[]> {
-  const people = await User.findAll({ where: { organisationId: organisation.id, deactivatedAt: null }, order: [['email', 'ASC']] });
+  const people = (await listUsers(organisation.id)).filter((u) => u.isActive);
   const lead = people.find((u) => u.role === 'lead');
   const engineer = people.find((u) => u.role === 'engineer');
   if (!lead || !engineer) return [];
