@@ -31,7 +31,7 @@ export async function waiveLineage(
   const latest = input.untilLabel === null ? null : await latestReadySnapshot(where.repositoryId);
   if (latest && input.untilLabel !== null && releaseReached(input.untilLabel, latest.label)) {
     throw new ValidationError(
-      `untilLabel: release "${input.untilLabel}" is already loaded (the latest snapshot is ${latest.label}); name a later release, or leave it out.`,
+      `Until release: "${input.untilLabel}" is already loaded (the latest snapshot is ${latest.label}); name a later release, or leave it out.`,
       'untilLabel',
     );
   }

@@ -64,7 +64,7 @@ describe('a waiver "until release …"', () => {
     for (const untilLabel of ['2026.10', '2026.9']) {
       const res = await lead.post(`/api/clone-classes/${first.id}/waiver`).send({ reason: 'Too late', untilLabel }).expect(400);
       expect(res.body.error).toMatchObject({ field: 'untilLabel' });
-      expect(res.body.error.message).toContain(`release "${untilLabel}" is already loaded (the latest snapshot is 2026.10)`);
+      expect(res.body.error.message).toBe(`Until release: "${untilLabel}" is already loaded (the latest snapshot is 2026.10); name a later release, or leave it out.`);
     }
     expect(((await lead.get(`/api/clone-classes/${first.id}`).expect(200)).body as CloneClassDetailDTO).waiver).toBeNull();
     await lead.post(`/api/clone-classes/${first.id}/waiver`).send({ reason: 'Until the next one', untilLabel: '2026.11' }).expect(201);
