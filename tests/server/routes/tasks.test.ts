@@ -114,6 +114,17 @@ describe('POST /api/tasks', () => {
     expect(await taskCount(repository.id)).toBe(0);
     expect(await taskCount(other.repository.id)).toBe(0);
   });
+  it('answers 409 for a class whose copies are gone from the latest snapshot', { timeout: SLOW }, async () => {
+    const { team, repository, lead, inspect } = await setup();
+    await loadFolder(repository, `${RELEASES}/v2`, 'v2');
+    // v3 no longer has the inspection rule's copies in one class
+    await loadFolder(repository, `${RELEASES}/v3`, 'v3');
+    const res = await lead.post('/api/tasks').send({ cloneClassId: inspect.id, assigneeId: team.engineer.id, title: 'Too late' });
+    expect(res.status).toBe(409);
+    expect(res.body.error).toMatchObject({ field: 'cloneClassId' });
+    expect(res.body.error.message).toContain('v3');
+    expect(await taskCount(repository.id)).toBe(0);
+  });
 });
 
 describe('PATCH /api/tasks/:id', () => {
