@@ -103,6 +103,15 @@ export function loadConfig() {
       maxExpansionRatio: intFromEnv('DOUBLET_MAX_EXPANSION_RATIO', 200),
       gitCacheDir: path.resolve(process.env.DOUBLET_GIT_CACHE_DIR ?? path.join(dataDir, 'git-cache')),
       gitTimeoutSeconds: intFromEnv('DOUBLET_GIT_TIMEOUT_SECONDS', 300),
+      /**
+       * Folders under which a repository may be linked to a local path (an on-premise mirror);
+       * none by default, so a lead cannot point Doublet at whatever repository is on its disk.
+       */
+      gitLocalRoots: (process.env.DOUBLET_GIT_LOCAL_ROOTS ?? '')
+        .split(',')
+        .map((entry) => entry.trim())
+        .filter(Boolean)
+        .map((entry) => path.resolve(entry)),
     },
   };
 }

@@ -144,7 +144,7 @@ export async function send<Q extends QueueName>(queue: Q, data: JobData<Q>, opti
  * @example
  * await waitingJobs('mail.send', { organisationId }) // mails not yet accepted by the mail server
  */
-export async function waitingJobs(queue: QueueName, match: Record<string, string>): Promise<number> {
+export async function waitingJobs(queue: QueueName, match: Record<string, string | number>): Promise<number> {
   if (!running) await startJobs();
   const current = running!;
   // The schema is a checked SQL name (config) or a test's own; everything else is a parameter.

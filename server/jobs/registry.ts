@@ -1,4 +1,5 @@
 import type { JobDefinition } from './definition';
+import { gitImportJob } from './git-import';
 import { mailSendJob } from './mail-send';
 
 /**
@@ -7,6 +8,7 @@ import { mailSendJob } from './mail-send';
  */
 export const JOBS = {
   'mail.send': mailSendJob,
+  'git.import': gitImportJob,
 } as const;
 
 /** A queue name of a registered job. */

@@ -110,3 +110,25 @@ export function insertSnapshotMetrics(tx: Transaction, snapshotId: number, m: Sn
       m.crossPairCount, m.newClassCount, m.driftedClassCount, m.goneClassCount, m.unwaivedClonedTokens],
   );
 }
+
+/**
+ * Inserts a snapshot row already failed, with its reason: a release that could not even be read
+ * (a git tag over the limits) still shows in the list, and its label stays taken.
+ */
+export async function insertFailedSnapshot(snapshot: NewSnapshot, reason: string): Promise<number> {
+  const [{ id }] = await select<{ id: number }>(
+    undefined,
+    `insert into snapshots (repository_id, label, source, commit_sha, status, error, settings)
+     values ($1, $2, $3, $4, 'failed', $5, $6) returning id`,
+    [snapshot.repositoryId, snapshot.label, snapshot.source, snapshot.commitSha, reason, JSON.stringify(snapshot.settings)],
+  );
+  return id;
+}
+
+/**
+ * Deletes a snapshot whose load did not finish (failed, or left running by a worker that died),
+ * so that its release can be loaded again; a ready snapshot is never deleted here.
+ */
+export function deleteUnfinishedSnapshot(snapshotId: number): Promise<void> {
+  return execute(undefined, `delete from snapshots where id = $1 and status <> 'ready'`, [snapshotId]);
+}
