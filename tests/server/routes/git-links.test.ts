@@ -3,7 +3,6 @@ import os from 'node:os';
 import path from 'node:path';
 import type { Express } from 'express';
 import request from 'supertest';
-import { simpleGit } from 'simple-git';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../../server/app';
 import { select } from '../../../server/clone-index/sql';
@@ -11,79 +10,29 @@ import { repositoryGitCacheDir } from '../../../server/commands/gitRemotes';
 import type { GitImportAnswerDTO, GitLinkAnswerDTO, GitLinkDTO } from '../../../shared/api/git-links';
 import type { CloneClassPageDTO, SnapshotComparisonDTO, SnapshotListDTO } from '../../../shared/api/snapshots';
 import { buildRepository, buildTeam, signedInAgent, useDatabase, useMail, type Agent } from '../../support';
+import { buildReleaseRepository, TARIFF_RELEASES, type ReleaseRepository } from '../../support/git';
 
 useDatabase();
 useMail();
 
 let work: string;
-let author: string;
+let repo: ReleaseRepository;
 let bare: string;
 let app: Express;
 
-// Invented Brackenfold code. The second release copies computeTariff into surchargeTariff; the
-// third fixes that by making surchargeTariff call computeTariff (the copy is gone).
-const tariff = `export function computeTariff(wagon, distance, season) {
-  const base = wagon.axles * 120 + (wagon.loaded ? wagon.tonnes * 3 : 0);
-  const perKm = wagon.hazardous ? 4.5 : season === 'winter' ? 3.6 : 3.2;
-  if (distance > 800) return base + perKm * 800 + (distance - 800) * perKm * 0.8;
-  return base + perKm * distance;
-}
-`;
-const copied = `export function surchargeTariff(wagon, km, season) {
-  const base = wagon.axles * 120 + (wagon.loaded ? wagon.tonnes * 3 : 0);
-  const perKm = wagon.hazardous ? 4.5 : season === 'winter' ? 3.6 : 3.2;
-  if (km > 800) return base + perKm * 800 + (km - 800) * perKm * 0.8;
-  return base + perKm * km + 25;
-}
-`;
-const fixed = `import { computeTariff } from './tariff.js';
-export function surchargeTariff(wagon, km, season) {
-  return computeTariff(wagon, km, season) + 25;
-}
-`;
-
-/** A git client for the test's own repository, with fixed dates so the tag order is known. */
-function gitAt(dir: string, date?: string) {
-  const env: Record<string, string> = { PATH: process.env.PATH ?? '', HOME: work };
-  if (date) Object.assign(env, { GIT_AUTHOR_DATE: date, GIT_COMMITTER_DATE: date });
-  return simpleGit({ baseDir: dir, allowEnvironment: ['GIT_AUTHOR_DATE', 'GIT_COMMITTER_DATE'] }).env(env);
-}
-
-function write(rel: string, content: string) {
-  fs.mkdirSync(path.dirname(path.join(author, rel)), { recursive: true });
-  fs.writeFileSync(path.join(author, rel), content);
-}
-
-/** Commits the work tree, tags it, and pushes the tag to the bare repository. */
-async function release(tag: string, date: string, annotated = false) {
-  const g = gitAt(author, date);
-  await g.add('.');
-  await g.commit(`release ${tag}`);
-  if (annotated) await g.addAnnotatedTag(tag, `release ${tag}`);
-  else await g.addTag(tag);
-  await g.raw(['push', '--quiet', bare, `refs/tags/${tag}`]);
-}
-
 beforeAll(async () => {
   work = fs.realpathSync(fs.mkdtempSync(path.join(os.tmpdir(), 'doublet-git-link-')));
-  author = path.join(work, 'author', 'freight-platform');
-  bare = path.join(work, 'mirrors', 'freight-platform.git');
   process.env.DOUBLET_GIT_CACHE_DIR = path.join(work, 'cache');
   process.env.DOUBLET_GIT_LOCAL_ROOTS = path.join(work, 'mirrors');
-  fs.mkdirSync(author, { recursive: true });
-  fs.mkdirSync(bare, { recursive: true });
-  await gitAt(bare).raw(['init', '--bare', '--quiet']);
-  const g = gitAt(author);
-  await g.init();
-  await g.addConfig('user.name', 'Ines Varga');
-  await g.addConfig('user.email', 'ines.varga@brackenfold.example');
+  repo = await buildReleaseRepository(work, path.join(work, 'mirrors', 'freight-platform.git'), path.join(work, 'author', 'freight-platform'));
+  bare = repo.bare;
   // Names chosen so that name order (release-10, release-11, release-9) differs from date order.
-  write('src/tariff.js', tariff);
-  await release('release-9', '2026-09-01T10:00:00Z');
-  write('src/surcharge.js', copied);
-  await release('release-10', '2026-10-01T10:00:00Z', true);
-  write('src/surcharge.js', fixed);
-  await release('release-11', '2026-11-01T10:00:00Z');
+  repo.write('src/tariff.js', TARIFF_RELEASES.tariff);
+  await repo.release('release-9', '2026-09-01T10:00:00Z');
+  repo.write('src/surcharge.js', TARIFF_RELEASES.copied);
+  await repo.release('release-10', '2026-10-01T10:00:00Z', true);
+  repo.write('src/surcharge.js', TARIFF_RELEASES.fixed);
+  await repo.release('release-11', '2026-11-01T10:00:00Z');
   app = createApp();
 });
 
@@ -210,7 +159,7 @@ describe('POST /api/repositories/:id/git/import', () => {
       ['release-10', 'git', 'ready'],
       ['release-11', 'git', 'ready'],
     ]);
-    expect(snapshots[2].commitSha).toBe((await gitAt(bare).revparse(['release-11^{commit}'])).trim());
+    expect(snapshots[2].commitSha).toBe(await repo.commitOf('release-11'));
 
     const viewer = await signedInAgent(app, team.viewer);
     const classes = async (id: number) => ((await viewer.get(`/api/snapshots/${id}/classes`).expect(200)).body as CloneClassPageDTO).classes;
@@ -230,8 +179,8 @@ describe('POST /api/repositories/:id/git/import', () => {
     expect(again.lastImport).toMatchObject({ status: 'succeeded', tagCount: 3, newTagCount: 0, loadedCount: 0 });
     expect(await snapshotsOf(lead, repository.id)).toHaveLength(3);
 
-    write('src/ledger.js', 'export function ledgerTotal(entries) {\n  return entries.reduce((sum, entry) => sum + entry.amount, 0);\n}\n');
-    await release('release-12', '2026-12-01T10:00:00Z');
+    repo.write('src/ledger.js', 'export function ledgerTotal(entries) {\n  return entries.reduce((sum, entry) => sum + entry.amount, 0);\n}\n');
+    await repo.release('release-12', '2026-12-01T10:00:00Z');
     await lead.post(`/api/repositories/${repository.id}/git/import`).expect(202);
     const fourth = await importFinished(lead, repository.id);
     expect(fourth.lastImport).toMatchObject({ status: 'succeeded', tagCount: 4, newTagCount: 1, loadedCount: 1 });

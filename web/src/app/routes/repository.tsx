@@ -5,6 +5,7 @@ import { PageHeader } from '@/components/page-header';
 import { Panel } from '@/components/panel';
 import { formatPercent } from '@/lib/format';
 import { useSession } from '@/features/auth/api/get-session';
+import { GitReleasesPanel } from '@/features/git-releases/components/git-releases-panel';
 import { useRepository } from '@/features/repositories/api/get-repository';
 import { OverBudgetMarker } from '@/features/repositories/components/budget-marker';
 import { DeleteRepository } from '@/features/repositories/components/delete-repository';
@@ -12,7 +13,7 @@ import { RepositorySettingsForm } from '@/features/repositories/components/repos
 import { SnapshotTable } from '@/features/repositories/components/snapshot-table';
 import { TrendChart } from '@/features/repositories/components/trend-chart';
 
-/** /repositories/:id: the trend, the snapshots, and (for leads) settings and delete. */
+/** /repositories/:id: the trend, the snapshots, git releases (engineers and up), and (for leads) settings and delete. */
 export function RepositoryRoute() {
   const id = Number(useParams().id);
   const repository = useRepository(id);
@@ -28,6 +29,8 @@ export function RepositoryRoute() {
   const r = repository.data;
   const mayUpdate = role !== undefined && can(role, 'repositories.update');
   const mayDelete = role !== undefined && can(role, 'repositories.delete');
+  const mayImport = role !== undefined && can(role, 'snapshots.upload');
+  const sidebar = mayUpdate || mayDelete || mayImport;
   return (
     <div className="max-w-6xl">
       <div className="mb-1 text-xs text-muted">
@@ -51,7 +54,7 @@ export function RepositoryRoute() {
         }
       />
       {r.description ? <p className="-mt-2 mb-4 text-sm">{r.description}</p> : null}
-      <div className={mayUpdate || mayDelete ? 'grid items-start gap-4 xl:grid-cols-[1fr_320px]' : ''}>
+      <div className={sidebar ? 'grid items-start gap-4 xl:grid-cols-[1fr_320px]' : ''}>
         <div className="min-w-0 space-y-4">
           <Panel title="Clone ratio by release">
             <TrendChart repositoryId={id} />
@@ -60,8 +63,13 @@ export function RepositoryRoute() {
             <SnapshotTable repositoryId={id} />
           </Panel>
         </div>
-        {mayUpdate || mayDelete ? (
+        {sidebar ? (
           <div className="space-y-4">
+            {mayImport ? (
+              <Panel title="Git releases">
+                <GitReleasesPanel repositoryId={id} mayLink={mayUpdate} />
+              </Panel>
+            ) : null}
             {mayUpdate ? (
               <Panel title="Settings">
                 <RepositorySettingsForm repository={r} />
