@@ -1,5 +1,6 @@
 import type { JobDefinition } from './definition';
 import { mailSendJob } from './mail-send';
+import { snapshotLoadJob } from './snapshot-load';
 
 /**
  * Every job kind, by queue name: one file a job under server/jobs/, listed here. Workers work
@@ -7,6 +8,7 @@ import { mailSendJob } from './mail-send';
  */
 export const JOBS = {
   'mail.send': mailSendJob,
+  'snapshot.load': snapshotLoadJob,
 } as const;
 
 /** A queue name of a registered job. */
