@@ -1,6 +1,6 @@
 import { db } from '../db/connection';
 import type { Repository } from '../models/Repository';
-import { deleteUnheldContents } from '../queries/files';
+import { deleteUnheldContents, lockContents } from '../queries/files';
 import { deleteGitMirror } from './gitRemotes';
 
 /**
@@ -10,6 +10,8 @@ import { deleteGitMirror } from './gitRemotes';
  */
 export async function deleteRepository(repository: Repository): Promise<void> {
   await db().transaction(async (tx) => {
+    // Waits for loads finishing (they hold texts another repository's snapshot may be about to share).
+    await lockContents(tx, 'delete');
     await repository.destroy({ transaction: tx });
     await deleteUnheldContents(tx);
   });

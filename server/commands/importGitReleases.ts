@@ -1,9 +1,11 @@
+import type { AnalyzerPool } from '../../analyzers';
+import type { LoadProgressDTO } from '../../shared/api/snapshots';
 import { ConflictError } from '../errors';
 import { IngestError } from '../ingest/errors';
 import { fetchTags, listTags, readTag, redactCredentials, type GitTag } from '../ingest/git';
 import { Repository } from '../models/Repository';
 import { findGitLink, markImportFinished, markImportRunning, recordImportPlan, recordImportProgress, snapshotLabels } from '../queries/gitLinks';
-import { deleteUnfinishedSnapshot, insertFailedSnapshot } from '../queries/snapshots';
+import { deleteUnfinishedSnapshot, findSnapshotByLabel, insertFailedSnapshot, writeLoadProgress } from '../queries/snapshots';
 import { repositorySettings } from './createRepository';
 import { checkRemoteForImport, repositoryGitCacheDir } from './gitRemotes';
 import { loadSnapshot } from './loadSnapshot';
@@ -36,7 +38,7 @@ export interface GitImportResult {
  *
  * @example await importGitReleases(repository.id); // loads release-9, release-10, release-11
  */
-export async function importGitReleases(repositoryId: number, options: { maxTags?: number } = {}): Promise<GitImportResult | null> {
+export async function importGitReleases(repositoryId: number, options: { maxTags?: number; pool?: AnalyzerPool } = {}): Promise<GitImportResult | null> {
   const link = await findGitLink(repositoryId);
   const repository = await Repository.findByPk(repositoryId);
   if (!link || !repository) return null;
@@ -60,7 +62,7 @@ export async function importGitReleases(repositoryId: number, options: { maxTags
       await recordImportProgress(repositoryId, tag.name, result.loadedCount);
       const unfinished = byLabel.get(tag.name);
       if (unfinished) await deleteUnfinishedSnapshot(unfinished.id);
-      if (await loadTag(repository, mirror, cacheDir, tag)) result.loadedCount += 1;
+      if (await loadTag(repository, mirror, cacheDir, tag, options.pool)) result.loadedCount += 1;
     }
   } catch (error) {
     result.error = redactCredentials(error instanceof Error ? error.message : String(error)).slice(0, 2000);
@@ -73,7 +75,7 @@ export async function importGitReleases(repositoryId: number, options: { maxTags
  * Reads one tag and loads it as a snapshot labelled with the tag's name. Returns false when an
  * upload took the label meanwhile; throws an error naming the tag when it cannot be loaded.
  */
-async function loadTag(repository: Repository, mirror: string, cacheDir: string, tag: GitTag): Promise<boolean> {
+async function loadTag(repository: Repository, mirror: string, cacheDir: string, tag: GitTag, pool?: AnalyzerPool): Promise<boolean> {
   const settings = repositorySettings(repository);
   let contents;
   try {
@@ -85,12 +87,57 @@ async function loadTag(repository: Repository, mirror: string, cacheDir: string,
     await insertFailedSnapshot(snapshot, error.message).catch(() => undefined);
     throw new Error(`Tag ${tag.name} could not be read: ${error.message}`);
   }
+  const progress = new TagProgress(repository.id, tag.name);
   try {
-    await loadSnapshot({ repository: settings, label: tag.name, source: 'git', commitSha: tag.commit, files: contents.files, skipped: contents.skipped });
+    await loadSnapshot(
+      { repository: settings, label: tag.name, source: 'git', commitSha: tag.commit, files: contents.files, skipped: contents.skipped },
+      { pool, onProgress: progress.report },
+    );
     return true;
   } catch (error) {
     if (error instanceof ConflictError) return false;
     throw new Error(`Tag ${tag.name} failed to load: ${error instanceof Error ? error.message : String(error)}`);
+  } finally {
+    await progress.stop();
+  }
+}
+
+/** How often a tag's load writes its progress at most (a change of phase is written at once). */
+const PROGRESS_INTERVAL_MS = 500;
+
+/**
+ * Writes a tag's load progress to its snapshot row (found by label once the load has inserted it),
+ * so the snapshot list shows the phase and counts as for an upload. A failed write is ignored.
+ */
+class TagProgress {
+  private snapshotId: number | undefined;
+  private phase: string | undefined;
+  private lastWrite = 0;
+  private chain: Promise<void> = Promise.resolve();
+
+  constructor(
+    private readonly repositoryId: number,
+    private readonly label: string,
+  ) {}
+
+  readonly report = (progress: LoadProgressDTO): void => {
+    if (progress.phase === this.phase && Date.now() - this.lastWrite < PROGRESS_INTERVAL_MS) return;
+    this.phase = progress.phase;
+    this.lastWrite = Date.now();
+    this.chain = this.chain.then(async () => {
+      try {
+        this.snapshotId ??= (await findSnapshotByLabel(this.repositoryId, this.label))?.id;
+        // Rows a git import inserts run as attempt 0 (they are not queued jobs of their own).
+        if (this.snapshotId !== undefined) await writeLoadProgress(this.snapshotId, 0, progress);
+      } catch {
+        // Progress is for show: a failed write (the database restarting) does not stop the load.
+      }
+    });
+  };
+
+  /** Waits for the writes in flight. */
+  stop(): Promise<void> {
+    return this.chain;
   }
 }
 

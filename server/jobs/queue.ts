@@ -54,6 +54,8 @@ async function open(options: StartJobsOptions): Promise<Running> {
     max: 4,
     // No cron schedules yet: skip the clock monitor and its polling.
     schedule: false,
+    // How soon a job whose worker died (its lease, expireInSeconds, ran out) is failed and retried.
+    maintenanceIntervalSeconds: config.jobsMaintenanceSeconds,
     // Finished jobs keep their data (a mail's body holds one-time links) for a day, not pg-boss's week.
     archiveCompletedAfterSeconds: 3600,
     deleteAfterDays: 1,

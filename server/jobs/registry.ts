@@ -1,6 +1,7 @@
 import type { JobDefinition } from './definition';
 import { gitImportJob } from './git-import';
 import { mailSendJob } from './mail-send';
+import { snapshotLoadJob } from './snapshot-load';
 
 /**
  * Every job kind, by queue name: one file a job under server/jobs/, listed here. Workers work
@@ -8,6 +9,7 @@ import { mailSendJob } from './mail-send';
  */
 export const JOBS = {
   'mail.send': mailSendJob,
+  'snapshot.load': snapshotLoadJob,
   'git.import': gitImportJob,
 } as const;
 

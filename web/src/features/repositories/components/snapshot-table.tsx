@@ -8,8 +8,9 @@ import { useRepositorySnapshots } from '@/features/repositories/api/get-reposito
 const STATUS_TONES: Record<SnapshotDTO['status'], string> = {
   ready: 'text-accent',
   running: 'text-amber-strong',
-  pending: 'text-muted',
+  queued: 'text-muted',
   failed: 'text-danger',
+  cancelled: 'text-muted',
 };
 
 /** A repository's snapshots, newest first; ready ones link to their clone classes. */
