@@ -17,7 +17,7 @@ import { select } from '../clone-index/sql';
 import { JS_PACKAGES, loadPackages } from './quality/corpus';
 
 /**
- * `npm run bench:ingest [-- --loads 6 --files 60 --workers 1,2 --keep]`: loads per minute with 1
+ * `npm run bench:ingest [-- --loads 12 --files 60 --workers 1,2 --keep]`: loads per minute with 1
  * and 2 worker processes (`npm run worker`) on this machine, printed as a Markdown table with the
  * load average beside each figure. Not a test: it measures, it does not judge.
  *
@@ -162,7 +162,7 @@ async function measure(workers: number, count: number, releases: string, work: s
 async function main() {
   const { values } = parseArgs({
     options: {
-      loads: { type: 'string', default: '6' },
+      loads: { type: 'string', default: '12' },
       files: { type: 'string', default: '60' },
       workers: { type: 'string', default: '1,2' },
       keep: { type: 'boolean' },
