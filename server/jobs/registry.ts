@@ -1,5 +1,6 @@
 import type { JobDefinition } from './definition';
 import { gitImportJob } from './git-import';
+import { loadNoticesJob } from './load-notices';
 import { mailSendJob } from './mail-send';
 import { snapshotLoadJob } from './snapshot-load';
 
@@ -11,6 +12,7 @@ export const JOBS = {
   'mail.send': mailSendJob,
   'snapshot.load': snapshotLoadJob,
   'git.import': gitImportJob,
+  'load.notices': loadNoticesJob,
 } as const;
 
 /** A queue name of a registered job. */

@@ -214,3 +214,9 @@ export async function insertFailedSnapshot(snapshot: NewSnapshot, reason: string
 export function deleteUnfinishedSnapshot(snapshotId: number): Promise<void> {
   return execute(undefined, `delete from snapshots where id = $1 and status <> 'ready'`, [snapshotId]);
 }
+
+/** A snapshot's release label (inside its load's transaction too), or undefined. */
+export async function snapshotLabel(tx: Transaction | undefined, snapshotId: number): Promise<string | undefined> {
+  const [row] = await select<{ label: string }>(tx, 'select label from snapshots where id = $1', [snapshotId]);
+  return row?.label;
+}

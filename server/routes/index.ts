@@ -14,6 +14,7 @@ import { snapshotRoutes } from './snapshots';
 import { outboxRoutes } from './outbox';
 import { apiTokenRoutes } from './tokens';
 import { gitLinkRoutes } from './git-links';
+import { accountRoutes } from './account';
 
 /** Every resource's routes. Add new router files here; tests read this list. */
 export const ROUTE_GROUPS: RouteGroup[] = [
@@ -28,6 +29,7 @@ export const ROUTE_GROUPS: RouteGroup[] = [
   outboxRoutes,
   apiTokenRoutes,
   gitLinkRoutes,
+  accountRoutes,
 ];
 
 /** Every declared API route with its full path and guard (what the route × role tests enumerate). */
