@@ -64,14 +64,16 @@ function inside(folder: string, candidate: string): boolean {
   return relative === '' || (!relative.startsWith('..') && !path.isAbsolute(relative));
 }
 
-function checkLocalPath(local: string): void {
-  const { ingest, dataDir } = loadConfig();
+function checkLocalPath(local: string, real?: { roots: string[]; dataDir: string; cacheDir: string }): void {
+  const config = loadConfig();
+  const { ingest } = config;
+  const { roots, dataDir, cacheDir } = real ?? { roots: ingest.gitLocalRoots, dataDir: config.dataDir, cacheDir: ingest.gitCacheDir };
   const resolved = path.resolve(local);
-  if (ingest.gitLocalRoots.length === 0) {
+  if (roots.length === 0) {
     throw refuse('local paths are not enabled on this server. The operator lists the folders that hold git mirrors in DOUBLET_GIT_LOCAL_ROOTS.');
   }
-  if (inside(dataDir, resolved) || inside(ingest.gitCacheDir, resolved)) throw refuse("a path inside Doublet's own data folder cannot be linked.");
-  if (!ingest.gitLocalRoots.some((root) => inside(root, resolved))) {
+  if (inside(dataDir, resolved) || inside(cacheDir, resolved)) throw refuse("a path inside Doublet's own data folder cannot be linked.");
+  if (!roots.some((root) => inside(root, resolved))) {
     throw refuse(`a local path must be inside one of the folders listed in DOUBLET_GIT_LOCAL_ROOTS (${ingest.gitLocalRoots.join(', ')}).`);
   }
 }
@@ -88,7 +90,14 @@ export async function checkRemoteForImport(url: string): Promise<GitRemote> {
     const real = await fs.realpath(local).catch(() => {
       throw refuse(`there is no folder at ${local} on the server.`);
     });
-    checkLocalPath(real);
+    // Compare real paths with real paths (a root may itself sit behind a symbolic link).
+    const { ingest, dataDir } = loadConfig();
+    const realOrSame = (folder: string) => fs.realpath(folder).catch(() => folder);
+    checkLocalPath(real, {
+      roots: await Promise.all(ingest.gitLocalRoots.map(realOrSame)),
+      dataDir: await realOrSame(dataDir),
+      cacheDir: await realOrSame(ingest.gitCacheDir),
+    });
   }
   return remote;
 }

@@ -203,6 +203,20 @@ describe('POST /api/repositories/:id/git/import', () => {
     expect(await snapshotsOf(lead, repository.id)).toEqual([]);
   }, 120_000);
 
+  it('refuses at import time a local path that leaves DOUBLET_GIT_LOCAL_ROOTS through a symbolic link', async () => {
+    const { repository, lead } = await leadWithRepository();
+    // Inside the root by its name, but pointing at the author's work tree outside it.
+    const escape = path.join(work, 'mirrors', 'escape.git');
+    fs.symlinkSync(path.join(work, 'author', 'freight-platform'), escape);
+    await lead.put(`/api/repositories/${repository.id}/git`).send({ remoteUrl: escape }).expect(200);
+    await lead.post(`/api/repositories/${repository.id}/git/import`).expect(202);
+    const refused = await importFinished(lead, repository.id);
+    expect(refused.lastImport).toMatchObject({ status: 'failed', loadedCount: 0 });
+    expect(refused.lastImport!.error).toMatch(/must be inside one of the folders listed in DOUBLET_GIT_LOCAL_ROOTS/);
+    expect(await snapshotsOf(lead, repository.id)).toEqual([]);
+    expect(fs.existsSync(repositoryGitCacheDir(repository.id))).toBe(false);
+  }, 120_000);
+
   it('queues one job when an import is already waiting', async () => {
     const { repository, lead } = await leadWithRepository();
     await lead.put(`/api/repositories/${repository.id}/git`).send({ remoteUrl: bare, tagPattern: 'release-9' }).expect(200);
