@@ -10,7 +10,7 @@ import { exceedsBudget, parseBudget, type CloneBudget } from '../reports/budget'
 import { processIo, type CommandIo } from './command';
 
 const USAGE = `usage: doublet push --server URL --repository ID --label LABEL [--token TOKEN]
-                    [--budget R] [--no-wait] [--timeout MINUTES] [--format text|json] [--out FILE] [FOLDER]
+                    [--budget R] [--wait | --no-wait] [--timeout MINUTES] [--format text|json] [--out FILE] [FOLDER]
 
 Packs FOLDER (default: the current folder) as a tar.gz, leaving out .git, symbolic links, the
 folders the analyzers never read (node_modules, dist, vendor…) and the repository's ignore list;
@@ -22,6 +22,7 @@ and the budget verdict.
   --token TOKEN     an API token of that repository (better: the DOUBLET_TOKEN environment
                     variable, which stays out of process lists and CI logs)
   --budget R        judge the release against R (0.05 or 5%) instead of the repository's budget
+  --wait            wait for the load (the default)
   --no-wait         exit 0 once the server has accepted the upload
   --timeout M       give up waiting after M minutes (default 60)
   --format F        text (default) or json (the snapshot and the verdict)
@@ -145,6 +146,7 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
         label: { type: 'string' },
         token: { type: 'string' },
         budget: { type: 'string' },
+        wait: { type: 'boolean' },
         'no-wait': { type: 'boolean' },
         timeout: { type: 'string' },
         format: { type: 'string' },
@@ -164,6 +166,7 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
     if (!values.label?.trim()) throw new PushError('--label is required: the release name, e.g. the tag or the commit');
     if (!token) throw new PushError('an API token is required: set DOUBLET_TOKEN (or pass --token)');
     if (positionals.length > 1) throw new PushError('give at most one folder');
+    if (values.wait && values['no-wait']) throw new PushError('--wait and --no-wait exclude each other');
     const format = values.format ?? 'text';
     if (format !== 'text' && format !== 'json') throw new PushError(`--format must be text or json (got "${format}")`);
     let budgetOverride: CloneBudget | undefined;

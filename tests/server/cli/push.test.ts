@@ -116,7 +116,7 @@ describe('doublet push against the real server', () => {
     const over = await pushProcess(['--server', base, '--repository', String(repository.id), '--label', 'v2-rc1', folder]);
     expect(over.stdout, over.stderr).toContain('Clone budget 0.001: OVER BUDGET.');
     expect(over.code, over.stderr).toBe(PUSH_EXIT.overBudget);
-    const within = await push(['--server', base, '--repository', String(repository.id), '--label', 'v2-rc2', '--budget', '100%', '--format', 'json', folder]);
+    const within = await push(['--server', base, '--repository', String(repository.id), '--label', 'v2-rc2', '--wait', '--budget', '100%', '--format', 'json', folder]);
     expect(within.code, within.stderr).toBe(PUSH_EXIT.ok);
     const summary = JSON.parse(within.stdout) as { verdict: string; budget: string; snapshot: { label: string; status: string } };
     expect(summary).toMatchObject({ verdict: 'within', budget: '100%', snapshot: { label: 'v2-rc2', status: 'ready' } });
@@ -133,6 +133,7 @@ describe('doublet push against the real server', () => {
       [['--server', base, '--repository', String(repository.id), '--label', 'v9', path.join(work, 'nowhere')], { DOUBLET_TOKEN: token }, /is not a folder/],
       [['--server', 'ftp://doublet.example', '--repository', String(repository.id), '--label', 'v9', folder], { DOUBLET_TOKEN: token }, /http:\/\/ or https:\/\//],
       [['--server', base, '--repository', String(repository.id), '--label', 'v9', '--colour', folder], { DOUBLET_TOKEN: token }, /Unknown option/],
+      [['--server', base, '--repository', String(repository.id), '--label', 'v9', '--wait', '--no-wait', folder], { DOUBLET_TOKEN: token }, /exclude each other/],
     ];
     for (const [args, env, message] of cases) {
       const result = await push(args, env);
