@@ -9,6 +9,7 @@ import { ConflictError, fromDatabaseError } from '../errors';
 import type { SnapshotSettings } from '../models/Snapshot';
 import { analysisOutcomes, findAnalyses, lockContents, storeAnalyses, storeContents, storeSnapshotFiles, type SnapshotFileRow } from '../queries/files';
 import { findSnapshotByLabel, insertRunningSnapshot, lockLoadingSnapshot, markSnapshotFailed, markSnapshotReady } from '../queries/snapshots';
+import { queueLoadNotices } from '../mail/load-notices';
 import { deriveClones } from './deriveClones';
 
 /** What to load: a repository's files at one release. */
@@ -236,6 +237,7 @@ async function loadRound(
       newSetCount: indexed.newSetCount,
     };
     await markSnapshotReady(tx, snapshotId, { ...counts, cloneRatio: derived.cloneRatio, timings });
+    await queueLoadNotices(tx, snapshotId);
     return { snapshotId, ...counts, pairCount: derived.pairCount, classCount: derived.classCount, cloneRatio: derived.cloneRatio, timings };
   });
 }

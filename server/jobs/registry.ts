@@ -1,4 +1,5 @@
 import type { JobDefinition } from './definition';
+import { loadNoticesJob } from './load-notices';
 import { mailSendJob } from './mail-send';
 import { snapshotLoadJob } from './snapshot-load';
 
@@ -9,6 +10,7 @@ import { snapshotLoadJob } from './snapshot-load';
 export const JOBS = {
   'mail.send': mailSendJob,
   'snapshot.load': snapshotLoadJob,
+  'load.notices': loadNoticesJob,
 } as const;
 
 /** A queue name of a registered job. */
