@@ -1,7 +1,7 @@
 import type { JobDefinition } from './definition';
 import { loadNoticesJob } from './load-notices';
 import { mailSendJob } from './mail-send';
-import { snapshotLoadJob } from './snapshot-load';
+import { snapshotLoadAbandonedJob, snapshotLoadJob } from './snapshot-load';
 
 /**
  * Every job kind, by queue name: one file a job under server/jobs/, listed here. Workers work
@@ -10,6 +10,7 @@ import { snapshotLoadJob } from './snapshot-load';
 export const JOBS = {
   'mail.send': mailSendJob,
   'snapshot.load': snapshotLoadJob,
+  'snapshot.load-abandoned': snapshotLoadAbandonedJob,
   'load.notices': loadNoticesJob,
 } as const;
 
