@@ -2,7 +2,7 @@ import type { JobDefinition } from './definition';
 import { gitImportJob } from './git-import';
 import { loadNoticesJob } from './load-notices';
 import { mailSendJob } from './mail-send';
-import { snapshotLoadJob } from './snapshot-load';
+import { snapshotLoadAbandonedJob, snapshotLoadJob } from './snapshot-load';
 
 /**
  * Every job kind, by queue name: one file a job under server/jobs/, listed here. Workers work
@@ -11,6 +11,7 @@ import { snapshotLoadJob } from './snapshot-load';
 export const JOBS = {
   'mail.send': mailSendJob,
   'snapshot.load': snapshotLoadJob,
+  'snapshot.load-abandoned': snapshotLoadAbandonedJob,
   'git.import': gitImportJob,
   'load.notices': loadNoticesJob,
 } as const;

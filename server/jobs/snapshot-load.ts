@@ -100,7 +100,7 @@ function failureReason(error: unknown): string {
 export const snapshotLoadJob = defineJob<SnapshotLoadData>({
   queue: 'snapshot.load',
   // The lease (expireInSeconds) is set when the job is sent, from DOUBLET_LOAD_LEASE_SECONDS.
-  sendOptions: { retryLimit: 5, retryDelay: 2, retryBackoff: true, retentionHours: 48 },
+  sendOptions: { retryLimit: 5, retryDelay: 2, retryBackoff: true, retentionHours: 48, deadLetter: 'snapshot.load-abandoned' },
   get workers() {
     return loadConfig().loads.perWorker;
   },
@@ -133,6 +133,24 @@ export const snapshotLoadJob = defineJob<SnapshotLoadData>({
       if (stop?.why === 'superseded') return;
       if (!stop) await markSnapshotFailed(snapshotId, failureReason(error), attempt);
     }
+    await deleteStoredArchive(snapshotId);
+  },
+});
+
+/**
+ * `snapshot.load-abandoned`: pg-boss's dead letter of `snapshot.load`. A load whose every attempt
+ * was cut off (each worker died, or each ran past the lease) would otherwise stay `running` for
+ * ever: it is marked failed with the reason, and its archive deleted.
+ */
+export const snapshotLoadAbandonedJob = defineJob<SnapshotLoadData>({
+  queue: 'snapshot.load-abandoned',
+  sendOptions: { retryLimit: 3, retryDelay: 5, retentionHours: 48 },
+  handler: async ({ snapshotId }) => {
+    const lease = loadConfig().loads.leaseSeconds;
+    await markSnapshotFailed(
+      snapshotId,
+      `The load was cut off on every attempt (its worker stopped, or it ran past the lease of ${lease} seconds, DOUBLET_LOAD_LEASE_SECONDS). Upload the release again; raise the lease for releases this large.`,
+    );
     await deleteStoredArchive(snapshotId);
   },
 });

@@ -135,6 +135,12 @@ export async function clearPartialLoad(snapshotId: number): Promise<void> {
   await execute(undefined, 'delete from snapshot_files where snapshot_id = $1', [snapshotId]);
 }
 
+/** The snapshots of a repository whose loads are queued or running (their archives are still kept). */
+export async function unfinishedLoadIds(tx: Transaction, repositoryId: number): Promise<number[]> {
+  const rows = await select<{ id: number }>(tx, `select id from snapshots where repository_id = $1 and status in ('queued', 'running')`, [repositoryId]);
+  return rows.map((r) => r.id);
+}
+
 /** Cancels a queued or running load; false when it has already ended. */
 export async function cancelLoad(snapshotId: number): Promise<boolean> {
   const rows = await select<{ id: number }>(

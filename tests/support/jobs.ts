@@ -4,7 +4,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll } from 'vitest';
 import { db } from '../../server/db/connection';
-import { startJobs, stopJobs } from '../../server/jobs';
+import { startJobs, stopJobs, type StartJobsOptions } from '../../server/jobs';
 import { Snapshot } from '../../server/models/Snapshot';
 import type { SnapshotStatus } from '../../shared/api/snapshots';
 
@@ -22,7 +22,7 @@ export interface JobsHarness {
  * `work`, this process works the queue (as `npm start`'s embedded worker); without, it only
  * sends, and a test starts worker processes. Call after useDatabase().
  */
-export function useJobs(options: { work: boolean }): JobsHarness {
+export function useJobs(options: { work: boolean; sendOptions?: StartJobsOptions['sendOptions'] }): JobsHarness {
   const harness = {
     schema: `pgboss_test_${process.pid}_${crypto.randomBytes(3).toString('hex')}`,
     uploadDir: fs.mkdtempSync(path.join(os.tmpdir(), 'doublet-uploads-')),
@@ -30,7 +30,7 @@ export function useJobs(options: { work: boolean }): JobsHarness {
   const previous = process.env.DOUBLET_UPLOAD_DIR;
   beforeAll(async () => {
     process.env.DOUBLET_UPLOAD_DIR = harness.uploadDir;
-    await startJobs({ connectionString: process.env.DATABASE_URL, schema: harness.schema, work: options.work, pollingIntervalSeconds: 0.5 });
+    await startJobs({ connectionString: process.env.DATABASE_URL, schema: harness.schema, work: options.work, pollingIntervalSeconds: 0.5, sendOptions: options.sendOptions });
   });
   afterAll(async () => {
     await stopJobs({ timeoutMs: 2000 });

@@ -286,6 +286,25 @@ describe('POST /api/snapshots/:id/cancel', () => {
     expect(again.body.error.message).toContain('already ended (cancelled)');
   }, 180_000);
 
+  it('deleting the repository mid-load deletes the kept archive, and the load stops writing nothing', async () => {
+    const repository = await buildRepository({ organisationId: team.organisation.id });
+    const res = await upload(agents.engineer, repository.id, 'deleted-midway', await slowArchive(), 'lib.tgz').expect(202);
+    const id = res.body.snapshot.id as number;
+    await waitForSnapshot(id, (s) => (s.status !== 'queued' && s.status !== 'running' ? true : s.progress?.phase === 'analysing'));
+    expect(fs.existsSync(storedArchivePath(id))).toBe(true);
+    await agents.lead.delete(`/api/repositories/${repository.id}`).expect(204);
+    expect(fs.existsSync(storedArchivePath(id))).toBe(false);
+    const deadline = Date.now() + 120_000;
+    while ((await jobState(id)) !== 'completed' && Date.now() < deadline) await new Promise((r) => setTimeout(r, 200));
+    expect(await jobState(id)).toBe('completed');
+    const [left] = await select<{ files: string; snapshots: string }>(
+      undefined,
+      'select (select count(*) from snapshot_files where snapshot_id = $1) as files, (select count(*) from snapshots where id = $1) as snapshots',
+      [id],
+    );
+    expect(left).toEqual({ files: '0', snapshots: '0' });
+  }, 180_000);
+
   it('lets a lead cancel an engineer\'s load; a ready snapshot is 409; a viewer is 403', async () => {
     const repository = await buildRepository({ organisationId: team.organisation.id });
     const res = await upload(agents.engineer, repository.id, 'lead-cancels', await slowArchive(), 'lib.tgz').expect(202);
