@@ -203,6 +203,48 @@ describe('POST /api/repositories/:id/git/import', () => {
     expect(await snapshotsOf(lead, repository.id)).toEqual([]);
   }, 120_000);
 
+  it('stops at a tag that cannot be read (its snapshot failed with the reason, no later tag loaded) and loads it and the next ones on the next check', async () => {
+    const { repository, lead } = await leadWithRepository();
+    const stops = await buildReleaseRepository(work, path.join(work, 'mirrors', 'yard-scheduler.git'), path.join(work, 'author', 'yard-scheduler'));
+    stops.write('src/tariff.js', TARIFF_RELEASES.tariff);
+    await stops.release('a-1', '2026-09-01T10:00:00Z');
+    for (const name of ['b', 'c', 'd', 'e', 'f', 'g']) stops.write(`src/${name}.js`, `export const ${name} = () => '${name}';\n`);
+    await stops.release('a-2', '2026-10-01T10:00:00Z');
+    stops.write('src/surcharge.js', TARIFF_RELEASES.copied);
+    await stops.release('a-3', '2026-11-01T10:00:00Z');
+    await lead.put(`/api/repositories/${repository.id}/git`).send({ remoteUrl: stops.bare }).expect(200);
+
+    // a-1's tree has 3 entries (two folders and a file), a-2's more than 5.
+    process.env.DOUBLET_MAX_ARCHIVE_ENTRIES = '5';
+    try {
+      await lead.post(`/api/repositories/${repository.id}/git/import`).expect(202);
+      const stopped = await importFinished(lead, repository.id);
+      expect(stopped.lastImport).toMatchObject({ status: 'failed', tagCount: 3, newTagCount: 3, loadedCount: 1 });
+      expect(stopped.lastImport!.error).toMatch(/^Tag a-2 could not be read: The archive has more than 5 entries/);
+    } finally {
+      delete process.env.DOUBLET_MAX_ARCHIVE_ENTRIES;
+    }
+    const first = await snapshotsOf(lead, repository.id);
+    expect(first.map((s) => [s.label, s.status])).toEqual([
+      ['a-1', 'ready'],
+      ['a-2', 'failed'],
+    ]);
+    expect(first[1].error).toMatch(/more than 5 entries/);
+
+    await lead.post(`/api/repositories/${repository.id}/git/import`).expect(202);
+    const resumed = await importFinished(lead, repository.id);
+    expect(resumed.lastImport).toMatchObject({ status: 'succeeded', tagCount: 3, newTagCount: 2, loadedCount: 2, error: null });
+    const all = await snapshotsOf(lead, repository.id);
+    expect(all.map((s) => [s.label, s.status])).toEqual([
+      ['a-1', 'ready'],
+      ['a-2', 'ready'],
+      ['a-3', 'ready'],
+    ]);
+    // a-3 is compared with a-2, the release before it, not with a-1.
+    const comparison = (await lead.get(`/api/snapshots/${all[2].id}/comparison`).expect(200)).body as SnapshotComparisonDTO;
+    expect(comparison.previous).toEqual({ id: all[1].id, label: 'a-2' });
+  }, 180_000);
+
   it('refuses at import time a local path that leaves DOUBLET_GIT_LOCAL_ROOTS through a symbolic link', async () => {
     const { repository, lead } = await leadWithRepository();
     // Inside the root by its name, but pointing at the author's work tree outside it.
