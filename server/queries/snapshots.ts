@@ -141,6 +141,11 @@ export async function unfinishedLoadIds(tx: Transaction, repositoryId: number): 
   return rows.map((r) => r.id);
 }
 
+/** Deletes a snapshot whose load failed or was cancelled (it holds no files or classes), freeing its label. */
+export async function deleteEndedSnapshot(tx: Transaction, snapshotId: number): Promise<void> {
+  await execute(tx, `delete from snapshots where id = $1 and status in ('failed', 'cancelled')`, [snapshotId]);
+}
+
 /** Cancels a queued or running load; false when it has already ended. */
 export async function cancelLoad(snapshotId: number): Promise<boolean> {
   const rows = await select<{ id: number }>(
