@@ -115,6 +115,18 @@ export async function writeLoadProgress(snapshotId: number, attempt: number, pro
   return row.attempt !== attempt ? 'superseded' : 'cancelled';
 }
 
+/** First key of the per-repository advisory lock (the second is the repository id). */
+const REPOSITORY_LOAD_LOCK = 0x646f;
+
+/**
+ * Serialises the last step of loads of one repository (each compares with the snapshot ready
+ * before it and continues its class lineages, so two must not do it at once); loads of other
+ * repositories are not held up.
+ */
+export function lockRepositoryLoads(tx: Transaction, repositoryId: number): Promise<void> {
+  return execute(tx, 'select pg_advisory_xact_lock($1::int, $2::int)', [REPOSITORY_LOAD_LOCK, repositoryId]);
+}
+
 /** Where a load's row stands when it is about to finish: locked in `tx` until the end of the load's last transaction. */
 export async function lockLoadingSnapshot(tx: Transaction, snapshotId: number): Promise<{ status: SnapshotStatus; attempt: number } | null> {
   const [row] = await select<{ status: SnapshotStatus; attempt: number }>(
