@@ -8,7 +8,7 @@ import { db } from '../db/connection';
 import { ConflictError, fromDatabaseError } from '../errors';
 import type { SnapshotSettings } from '../models/Snapshot';
 import { analysisOutcomes, findAnalyses, lockContents, storeAnalyses, storeContents, storeSnapshotFiles, type SnapshotFileRow } from '../queries/files';
-import { findSnapshotByLabel, insertRunningSnapshot, lockLoadingSnapshot, markSnapshotFailed, markSnapshotReady } from '../queries/snapshots';
+import { findSnapshotByLabel, insertRunningSnapshot, lockLoadingSnapshot, lockRepositoryLoads, markSnapshotFailed, markSnapshotReady } from '../queries/snapshots';
 import { queueLoadNotices } from '../mail/load-notices';
 import { deriveClones } from './deriveClones';
 
@@ -202,6 +202,7 @@ async function loadRound(
   progress('deriving', 0, 0);
   return db().transaction(async (tx) => {
     await lockContents(tx, 'load');
+    await lockRepositoryLoads(tx, input.repository.id);
     const row = await lockLoadingSnapshot(tx, snapshotId);
     if (!row) throw new LoadStoppedError('gone');
     if (row.status === 'cancelled') throw new LoadStoppedError('cancelled');

@@ -6,7 +6,7 @@ import { deleteStoredArchive, keepArchive, readArchive } from '../ingest';
 import { send } from '../jobs';
 import type { Repository } from '../models/Repository';
 import type { Snapshot } from '../models/Snapshot';
-import { cancelLoad, findSnapshotByLabel, insertQueuedSnapshot } from '../queries/snapshots';
+import { cancelLoad, deleteEndedSnapshot, findSnapshotByLabel, insertQueuedSnapshot } from '../queries/snapshots';
 import { repositorySettings } from './createRepository';
 import { settingsOf } from './loadSnapshot';
 
@@ -29,19 +29,23 @@ export interface UploadSnapshotInput {
  *
  * The label is unique within the repository: the same archive (sha-256) sent again under its label
  * answers with the snapshot it already made (`created: false`); another archive under a taken label
- * is a 409 naming the label, and so is a race of two uploads for one label.
+ * is a 409 naming the label, and so is a race of two uploads for one label. A label whose load
+ * failed or was cancelled is taken over by the new upload (that snapshot held nothing).
  */
 export async function uploadSnapshot(input: UploadSnapshotInput): Promise<{ snapshot: Snapshot; created: boolean }> {
   try {
-    const { sha256 } = await readArchive(input.tempFile, { ignore: input.repository.ignore });
+    const { sha256 } = await readArchive(input.tempFile, { ignore: input.repository.ignore, checkOnly: true });
     const existing = await findSnapshotByLabel(input.repository.id, input.label);
-    if (existing) {
+    // A failed or cancelled load holds nothing: its label is free for another try.
+    const replaces = existing && (existing.status === 'failed' || existing.status === 'cancelled') ? existing : undefined;
+    if (existing && !replaces) {
       if (existing.archiveSha256 === sha256) return { snapshot: existing, created: false };
       throw labelTaken(input.label);
     }
     let kept: number | undefined;
     try {
       const snapshot = await db().transaction(async (tx) => {
+        if (replaces) await deleteEndedSnapshot(tx, replaces.id);
         const row = await insertQueuedSnapshot(tx, {
           repositoryId: input.repository.id,
           label: input.label,

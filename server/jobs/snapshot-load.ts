@@ -3,6 +3,7 @@ import type { LoadProgressDTO } from '../../shared/api/snapshots';
 import { repositorySettings } from '../commands/createRepository';
 import { LoadStoppedError, runLoad } from '../commands/loadSnapshot';
 import { loadConfig } from '../config';
+import { isDatabaseUnavailable } from '../db/unavailable';
 import { deleteStoredArchive, IngestError, readArchive, storedArchivePath } from '../ingest';
 import { Repository } from '../models/Repository';
 import { Snapshot } from '../models/Snapshot';
@@ -95,7 +96,7 @@ function failureReason(error: unknown): string {
  * (its lease, `expireInSeconds`, runs out and pg-boss retries the job on any worker) is superseded,
  * and its partial work is gone with its transactions; the retry reads the kept archive again and
  * ends with the same result. A failure is final (no retry): reading or loading the same archive
- * again would fail the same way.
+ * again would fail the same way; only a lost database connection fails the attempt for a retry.
  */
 export const snapshotLoadJob = defineJob<SnapshotLoadData>({
   queue: 'snapshot.load',
@@ -131,6 +132,8 @@ export const snapshotLoadJob = defineJob<SnapshotLoadData>({
       const stop = error instanceof LoadStoppedError ? error : progress.signal.aborted ? (progress.signal.reason as LoadStoppedError) : undefined;
       // A newer attempt owns the archive now; in every other case the load has ended.
       if (stop?.why === 'superseded') return;
+      // PostgreSQL restarting is not the archive's fault: fail the attempt, and pg-boss retries it.
+      if (!stop && isDatabaseUnavailable(error)) throw error;
       if (!stop) await markSnapshotFailed(snapshotId, failureReason(error), attempt);
     }
     await deleteStoredArchive(snapshotId);

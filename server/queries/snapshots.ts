@@ -115,6 +115,18 @@ export async function writeLoadProgress(snapshotId: number, attempt: number, pro
   return row.attempt !== attempt ? 'superseded' : 'cancelled';
 }
 
+/** First key of the per-repository advisory lock (the second is the repository id). */
+const REPOSITORY_LOAD_LOCK = 0x646f;
+
+/**
+ * Serialises the last step of loads of one repository (each compares with the snapshot ready
+ * before it and continues its class lineages, so two must not do it at once); loads of other
+ * repositories are not held up.
+ */
+export function lockRepositoryLoads(tx: Transaction, repositoryId: number): Promise<void> {
+  return execute(tx, 'select pg_advisory_xact_lock($1::int, $2::int)', [REPOSITORY_LOAD_LOCK, repositoryId]);
+}
+
 /** Where a load's row stands when it is about to finish: locked in `tx` until the end of the load's last transaction. */
 export async function lockLoadingSnapshot(tx: Transaction, snapshotId: number): Promise<{ status: SnapshotStatus; attempt: number } | null> {
   const [row] = await select<{ status: SnapshotStatus; attempt: number }>(
@@ -139,6 +151,11 @@ export async function clearPartialLoad(snapshotId: number): Promise<void> {
 export async function unfinishedLoadIds(tx: Transaction, repositoryId: number): Promise<number[]> {
   const rows = await select<{ id: number }>(tx, `select id from snapshots where repository_id = $1 and status in ('queued', 'running')`, [repositoryId]);
   return rows.map((r) => r.id);
+}
+
+/** Deletes a snapshot whose load failed or was cancelled (it holds no files or classes), freeing its label. */
+export async function deleteEndedSnapshot(tx: Transaction, snapshotId: number): Promise<void> {
+  await execute(tx, `delete from snapshots where id = $1 and status in ('failed', 'cancelled')`, [snapshotId]);
 }
 
 /** Cancels a queued or running load; false when it has already ended. */

@@ -315,6 +315,13 @@ describe('POST /api/snapshots/:id/cancel', () => {
     expect(cancelled.body.snapshot.status).toBe('cancelled');
     expect((await waitForSnapshot(id)).status).toBe('cancelled');
 
+    // The label of a cancelled load is free again: a new upload takes it over.
+    const retry = await upload(agents.engineer, repository.id, 'lead-cancels', demoV1());
+    expect(retry.status, JSON.stringify(retry.body)).toBe(202);
+    expect(retry.body.snapshot.id).not.toBe(id);
+    expect(await repositoryRows(repository)).toBe(1);
+    expect((await waitForSnapshot(retry.body.snapshot.id)).status).toBe('ready');
+
     const ready = await loadFolder(repository, `${RELEASES}/v1`, 'v1');
     const late = await agents.lead.post(`/api/snapshots/${ready.snapshotId}/cancel`);
     expect(late.status).toBe(409);
