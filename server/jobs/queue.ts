@@ -58,6 +58,8 @@ async function open(options: StartJobsOptions): Promise<Running> {
     max: 4,
     // No cron schedules yet: skip the clock monitor and its polling.
     schedule: false,
+    // How soon a job whose worker died (its lease, expireInSeconds, ran out) is failed and retried.
+    maintenanceIntervalSeconds: config.jobsMaintenanceSeconds,
     // Finished jobs keep their data (a mail's body holds one-time links) for a day, not pg-boss's week.
     archiveCompletedAfterSeconds: 3600,
     deleteAfterDays: 1,
@@ -148,7 +150,7 @@ export async function send<Q extends QueueName>(queue: Q, data: JobData<Q>, opti
  * @example
  * await waitingJobs('mail.send', { organisationId }) // mails not yet accepted by the mail server
  */
-export async function waitingJobs(queue: QueueName, match: Record<string, string>): Promise<number> {
+export async function waitingJobs(queue: QueueName, match: Record<string, string | number>): Promise<number> {
   if (!running) await startJobs();
   const current = running!;
   // The schema is a checked SQL name (config) or a test's own; everything else is a parameter.

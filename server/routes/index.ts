@@ -14,6 +14,7 @@ import { snapshotRoutes } from './snapshots';
 import { outboxRoutes } from './outbox';
 import { apiTokenRoutes } from './tokens';
 import { memberRoutes, taskRoutes } from './tasks';
+import { gitLinkRoutes } from './git-links';
 import { accountRoutes } from './account';
 
 /** Every resource's routes. Add new router files here; tests read this list. */
@@ -30,6 +31,7 @@ export const ROUTE_GROUPS: RouteGroup[] = [
   apiTokenRoutes,
   taskRoutes,
   memberRoutes,
+  gitLinkRoutes,
   accountRoutes,
 ];
 

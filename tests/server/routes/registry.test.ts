@@ -38,6 +38,7 @@ const VALID_BODIES: Record<string, (role: Role) => object> = {
   'POST /api/tasks': () => ({ cloneClassId: 2147483647, assigneeId: MISSING_UUID, title: 'Registry check' }),
   'PATCH /api/tasks/:id': () => ({ status: 'in_progress' }),
   'POST /api/tasks/:id/comments': () => ({ body: 'Registry check' }),
+  'PUT /api/repositories/:id/git': () => ({ remoteUrl: 'https://git.brackenfold.example/freight-platform.git' }),
 };
 
 const routes = registeredRoutes();
