@@ -9,6 +9,8 @@ import { ConflictError } from '../errors';
 import type { SnapshotSettings } from '../models/Snapshot';
 import { analysisOutcomes, findAnalyses, storeAnalyses, storeContents, storeSnapshotFiles, type SnapshotFileRow } from '../queries/files';
 import { findSnapshotByLabel, insertRunningSnapshot, markSnapshotFailed, markSnapshotReady } from '../queries/snapshots';
+import { organisationOfRepository } from '../queries/cross-classes';
+import { rebuildCrossClasses } from './crossClasses';
 import { deriveClones } from './deriveClones';
 
 /** What to load: a repository's files at one release. */
@@ -148,5 +150,7 @@ async function loadInto(tx: Transaction, snapshotId: number, input: LoadSnapshot
     newSetCount: indexed.newSetCount,
   };
   await markSnapshotReady(tx, snapshotId, { ...counts, cloneRatio: derived.cloneRatio, timings });
+  // 6. the organisation's classes across repositories, now that this snapshot is the latest ready one
+  await rebuildCrossClasses(tx, await organisationOfRepository(tx, input.repository.id));
   return { snapshotId, ...counts, pairCount: derived.pairCount, classCount: derived.classCount, cloneRatio: derived.cloneRatio, timings };
 }
