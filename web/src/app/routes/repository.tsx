@@ -10,9 +10,11 @@ import { OverBudgetMarker } from '@/features/repositories/components/budget-mark
 import { DeleteRepository } from '@/features/repositories/components/delete-repository';
 import { RepositorySettingsForm } from '@/features/repositories/components/repository-settings-form';
 import { SnapshotTable } from '@/features/repositories/components/snapshot-table';
+import { CloneMap } from '@/features/repositories/components/clone-map';
+import { ReleaseChanges } from '@/features/repositories/components/release-changes';
 import { TrendChart } from '@/features/repositories/components/trend-chart';
 
-/** /repositories/:id: the trend, the snapshots, and (for leads) settings and delete. */
+/** /repositories/:id: the trend, the classes by release, the clone map, the snapshots, and (for leads) settings and delete. */
 export function RepositoryRoute() {
   const id = Number(useParams().id);
   const repository = useRepository(id);
@@ -29,7 +31,7 @@ export function RepositoryRoute() {
   const mayUpdate = role !== undefined && can(role, 'repositories.update');
   const mayDelete = role !== undefined && can(role, 'repositories.delete');
   return (
-    <div className="max-w-6xl">
+    <div className="max-w-[100rem]">
       <div className="mb-1 text-xs text-muted">
         <Link to="/repositories" className="hover:underline">
           Repositories
@@ -51,29 +53,47 @@ export function RepositoryRoute() {
         }
       />
       {r.description ? <p className="-mt-2 mb-4 text-sm">{r.description}</p> : null}
-      <div className={mayUpdate || mayDelete ? 'grid items-start gap-4 xl:grid-cols-[1fr_320px]' : ''}>
-        <div className="min-w-0 space-y-4">
-          <Panel title="Clone ratio by release">
-            <TrendChart repositoryId={id} />
-          </Panel>
-          <Panel title="Snapshots">
-            <SnapshotTable repositoryId={id} />
+      <div className="space-y-4">
+        <div className="grid items-start gap-4 xl:grid-cols-2">
+          <div className="min-w-0 space-y-4">
+            <Panel title="Clone ratio by release">
+              <TrendChart repositoryId={id} />
+            </Panel>
+            <Panel title="Classes by release">
+              <ReleaseChanges repositoryId={id} />
+            </Panel>
+          </div>
+          <Panel
+            title="Clone map"
+            className="min-w-0"
+            actions={
+              <Link to={`/clone-classes?repository=${id}`} className="text-xs text-accent-strong hover:underline">
+                All its classes
+              </Link>
+            }
+          >
+            <CloneMap repositoryId={id} height={340} />
           </Panel>
         </div>
-        {mayUpdate || mayDelete ? (
-          <div className="space-y-4">
-            {mayUpdate ? (
-              <Panel title="Settings">
-                <RepositorySettingsForm repository={r} />
-              </Panel>
-            ) : null}
-            {mayDelete ? (
-              <Panel title="Delete">
-                <DeleteRepository repository={r} onDeleted={() => navigate('/repositories', { replace: true })} />
-              </Panel>
-            ) : null}
-          </div>
-        ) : null}
+        <div className={mayUpdate || mayDelete ? 'grid items-start gap-4 xl:grid-cols-[1fr_360px]' : ''}>
+          <Panel title="Snapshots" className="min-w-0">
+            <SnapshotTable repositoryId={id} />
+          </Panel>
+          {mayUpdate || mayDelete ? (
+            <div className="space-y-4">
+              {mayUpdate ? (
+                <Panel title="Settings">
+                  <RepositorySettingsForm repository={r} />
+                </Panel>
+              ) : null}
+              {mayDelete ? (
+                <Panel title="Delete">
+                  <DeleteRepository repository={r} onDeleted={() => navigate('/repositories', { replace: true })} />
+                </Panel>
+              ) : null}
+            </div>
+          ) : null}
+        </div>
       </div>
     </div>
   );

@@ -1,0 +1,19 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { LatestLoadsDTO } from '@shared/api/organisation';
+import { api } from '@/lib/api-client';
+
+/** GET /api/organisation/loads: the most recent snapshots of every repository, whatever their status. */
+export function getLatestLoads(limit: number): Promise<LatestLoadsDTO> {
+  return api.get<LatestLoadsDTO>(`/organisation/loads?limit=${limit}`);
+}
+
+/** The latest loads; refreshed every few seconds while one is still running. */
+export function useLatestLoads(limit: number) {
+  return useQuery(
+    queryOptions({
+      queryKey: ['organisation', 'loads', limit],
+      queryFn: () => getLatestLoads(limit),
+      refetchInterval: (query) => (query.state.data?.loads.some((l) => l.status === 'pending' || l.status === 'running') ? 5000 : false),
+    }),
+  );
+}
