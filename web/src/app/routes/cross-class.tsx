@@ -75,7 +75,7 @@ function CrossClassPage({ detail }: { detail: CrossClassDetailDTO }) {
           </tbody>
         </table>
       </Panel>
-      <ClassMembers detail={{ ...detail, members: detail.members }} />
+      <ClassMembers detail={detail} />
       {detail.pairs.length > 1 ? (
         <Panel title={`Pairs (${detail.pairs.length})`}>
           <ClassPairs detail={detail} />
