@@ -28,7 +28,7 @@ export function OrganisationTrendChart({ trend, height = 200 }: { trend: Organis
     <figure aria-label="Clone ratio across all repositories" data-points={data.length}>
       <LineChart responsive style={{ width: '100%', height }} data={data} margin={{ top: 8, right: 16, bottom: 0, left: 0 }}>
         <CartesianGrid stroke={GRID} vertical={false} />
-        <XAxis dataKey="load" tick={TICK} tickLine={false} axisLine={{ stroke: GRID }} interval="preserveStartEnd" minTickGap={24} />
+        <XAxis dataKey="load" tick={TICK} tickLine={false} axisLine={{ stroke: GRID }} interval="preserveStartEnd" minTickGap={24} padding={{ left: 48, right: 48 }} />
         <YAxis domain={[0, domainTop]} ticks={ticks} interval={0} tick={TICK} tickLine={false} axisLine={false} width={44} tickFormatter={(v: number) => `${v} %`} />
         <Tooltip
           isAnimationActive={false}
