@@ -33,6 +33,16 @@ const BRAKES = (name: string) => `export function ${name}(wagon, readings) {
   return faults;
 }
 `;
+const VAT = `export function vatLines(invoice, rates) {
+  const lines = [];
+  for (const item of invoice.items) {
+    const rate = rates[item.country] ?? rates.default;
+    if (!rate || item.exempt) continue;
+    lines.push({ item: item.code, base: item.net, vat: Math.round(item.net * rate * 100) / 100 });
+  }
+  return lines.concat([{ item: 'total', base: invoice.net, vat: lines.reduce((sum, l) => sum + l.vat, 0) }]);
+}
+`;
 const SUMMARY = `export function shiftSummary(movements, shift) {
   const byTrack = new Map();
   for (const move of movements) {
@@ -71,6 +81,7 @@ beforeAll(async () => {
     'charges/demurrage.js': DEMURRAGE('demurrageOwed', '40'),
     'charges/siding.js': DEMURRAGE('sidingRent', '45'),
     'charges/storage.js': DEMURRAGE('storageFee', '50'),
+    'charges/vat.js': VAT,
     'safety/brakes.js': BRAKES('inspectBrakes'),
     'reports/summary.js': SUMMARY,
   };
@@ -174,19 +185,25 @@ describe('the repository page in Chromium', () => {
       await page.goto(`${session.baseUrl}/repositories/${yard.id}`, { waitUntil: 'networkidle' });
       const map = page.getByRole('figure', { name: 'Clone map of 1.1' });
       await map.locator('g[data-directory] rect').first().waitFor();
-      // One rectangle a directory, coloured by its share: charges/ is all copies, reports/ none.
-      const fill = (dir: string) => map.locator(`g[data-directory="${dir}"] rect`).getAttribute('fill');
-      expect(await fill('charges/')).toBe('#9c3328');
-      expect(await fill('reports/')).toBe('#eceae3');
+      // One rectangle a directory; its cloned band rises to the share of cloned tokens: all of charges/, none of reports/.
+      const band = (dir: string) => map.locator(`g[data-directory="${dir}"] rect[data-cloned-band]`);
       const table = map.getByRole('table', { name: 'Clone map, as a table', includeHidden: true });
       expect(await table.locator('tbody tr td:first-child').allTextContents()).toEqual(expect.arrayContaining(['charges/', 'reports/', 'safety/']));
+      // charges/ holds three copies and one function of its own: the band's height is its cloned share, as the table says
+      const [tokens, cloned] = (await table.getByRole('row', { name: /^charges\// , includeHidden: true }).locator('td').allTextContents()).slice(1, 3).map(Number);
+      expect(cloned / tokens).toBeGreaterThan(0.5);
+      expect(cloned / tokens).toBeLessThan(1);
+      expect(await band('charges/').getAttribute('fill')).toBe('#163d35');
+      const heights = await map.locator('g[data-directory="charges/"] rect').evaluateAll((rects) => rects.map((r) => Number(r.getAttribute('height'))));
+      expect(heights[1] / heights[0]).toBeCloseTo(cloned / tokens, 6);
+      expect(await band('reports/').count()).toBe(0);
       // Under the trend, by release: 1.1 has the one drifted class, 1.0 started with two new ones.
       const changes = page.getByRole('table', { name: 'Classes new, drifted and gone by release' }).locator('tbody tr');
       expect((await changes.allTextContents()).map((t) => t.replace(/\s+/g, ' '))).toEqual([expect.stringMatching(/^1\.1 ?0 ?1 ?0 ?1$/), expect.stringMatching(/^1\.0 ?first ?1 ?0 ?0 ?1$/)]);
       expect(await seriousViolations(page)).toEqual([]);
       await shot(page, 'repository-clone-map-engineer');
 
-      await map.locator('g[data-directory="charges/"] rect').click();
+      await map.locator('g[data-directory="charges/"]').click();
       await page.waitForURL((url) => url.pathname === '/clone-classes' && url.searchParams.get('path') === 'charges/' && url.searchParams.get('repository') === String(yard.id));
       const rows = page.getByRole('table', { name: 'Clone classes' }).locator('tbody tr');
       // yard-ledger's own class and the class across both repositories, each with members in charges/

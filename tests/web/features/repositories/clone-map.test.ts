@@ -39,7 +39,7 @@ describe('the clone map areas', () => {
     expect(areas[1].children).toBeUndefined();
   });
 
-  it('colours by steps of the share: nothing cloned apart from a little, half or more the darkest', () => {
+  it('shades by steps of the share: nothing cloned apart from a little, half or more the darkest', () => {
     expect(shareStep(0).label).toBe('none');
     expect(shareStep(0.001).label).toBe('under 5 %');
     expect(shareStep(0.05).label).toBe('5–15 %');

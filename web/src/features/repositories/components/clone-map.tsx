@@ -5,7 +5,7 @@ import type { CloneMapDTO } from '@shared/api/repositories';
 import { QueryState } from '@/components/data-state';
 import { formatPercent } from '@/lib/format';
 import { useCloneMap } from '@/features/repositories/api/get-clone-map';
-import { cloneMapAreas, flattenAreas, SHARE_STEPS, shareStep, type CloneMapArea } from '@/features/repositories/lib/clone-map';
+import { cloneMapAreas, flattenAreas, SHARE_STEPS, shareStep, UNCLONED_FILL, type CloneMapArea } from '@/features/repositories/lib/clone-map';
 
 /** Where a directory's classes are listed: the organisation's class list, narrowed to the repository and the directory. */
 export function classesInDirectory(repositoryId: number, directory: string): string {
@@ -20,8 +20,12 @@ type Drawn = Partial<CloneMapArea> & { x: number; y: number; width: number; heig
 /** The legend of the colour scale. */
 function ShareLegend() {
   return (
-    <ul className="flex flex-wrap items-center gap-x-3 gap-y-1 text-xs" aria-label="Colours: share of cloned tokens">
-      {SHARE_STEPS.map((s) => (
+    <ul className="flex flex-wrap items-center gap-x-3 gap-y-1 text-xs" aria-label="Shades: share of cloned tokens">
+      <li className="flex items-center gap-1">
+        <span aria-hidden="true" className="inline-block h-3 w-4 rounded-[1px] border border-line" style={{ background: UNCLONED_FILL }} />
+        not cloned
+      </li>
+      {SHARE_STEPS.slice(1).map((s) => (
         <li key={s.label} className="flex items-center gap-1">
           <span aria-hidden="true" className="inline-block h-3 w-4 rounded-[1px] border border-line" style={{ background: s.fill }} />
           {s.label}
@@ -53,21 +57,24 @@ export function CloneMapView({ map, height = 260 }: { map: CloneMapDTO; height?:
       event.stopPropagation();
       open(directory);
     };
+    if (!isLeaf) {
+      return (
+        <g>
+          <rect x={x} y={y} width={width} height={h} fill="none" stroke="#1f2523" strokeOpacity={0.5} strokeWidth={depth === 1 ? 2 : 1} />
+        </g>
+      );
+    }
+    // The cloned band rises from the bottom to the share of cloned tokens: its area is the cloned tokens.
+    const band = h * Math.min(1, Math.max(0, share ?? 0));
+    const labelOnBand = band > h - 16;
     return (
-      <g data-directory={directory} onClick={isLeaf ? onClick : undefined} style={{ cursor: isLeaf ? 'pointer' : undefined }}>
-        {isLeaf ? <title>{`${name}: ${formatPercent(share)} of ${props.tokens} tokens cloned`}</title> : null}
-        <rect
-          x={x}
-          y={y}
-          width={width}
-          height={h}
-          fill={isLeaf ? step.fill : 'none'}
-          stroke={isLeaf ? '#fbfbf8' : '#1f2523'}
-          strokeWidth={isLeaf ? 1 : depth === 1 ? 2 : 1}
-          strokeOpacity={isLeaf ? 1 : 0.5}
-        />
-        {isLeaf && width > 48 && h > 16 ? (
-          <text x={x + 4} y={y + 13} fill={step.ink} fontSize={11} fontFamily='"IBM Plex Mono", ui-monospace, monospace' pointerEvents="none">
+      <g data-directory={directory} onClick={onClick} style={{ cursor: 'pointer' }}>
+        <title>{`${name}: ${formatPercent(share)} of ${props.tokens} tokens cloned`}</title>
+        <rect x={x} y={y} width={width} height={h} fill={UNCLONED_FILL} />
+        {band > 0 ? <rect data-cloned-band="" x={x} y={y + h - band} width={width} height={band} fill={step.fill} /> : null}
+        <rect x={x} y={y} width={width} height={h} fill="none" stroke="#d9d6cc" strokeWidth={1} />
+        {width > 48 && h > 16 ? (
+          <text x={x + 4} y={y + 13} fill={labelOnBand ? step.ink : '#1f2523'} fontSize={11} fontFamily='"IBM Plex Mono", ui-monospace, monospace' pointerEvents="none">
             {name.length * 6.6 + 8 > width ? `${name.slice(0, Math.max(1, Math.floor((width - 8) / 6.6) - 1))}…` : name}
           </text>
         ) : null}
@@ -89,7 +96,8 @@ export function CloneMapView({ map, height = 260 }: { map: CloneMapDTO; height?:
       </div>
       <figcaption className="mt-2 space-y-1 text-xs text-muted">
         <p>
-          Each rectangle is a directory of {map.snapshot.label}, sized by its tokens and coloured by the share of them in clone pairs. Choose one to list its classes.
+          Each rectangle is a directory of {map.snapshot.label}, sized by its tokens. The band rising from its foot is the share of them in clone pairs
+          (so the bands&apos; area is the cloned code), shaded darker the larger the share. Choose a rectangle to list its classes.
           {map.complete ? '' : ' The deepest directories are folded into their parents.'}
         </p>
         <ShareLegend />

@@ -52,18 +52,22 @@ export function flattenAreas(areas: CloneMapArea[], depth = 0): (CloneMapArea & 
 }
 
 /**
- * The clone map's colour scale: six steps of the share of cloned tokens, from the page's paper
- * (nothing cloned) through verdigris and sand to brick red (half or more cloned). Each step names
- * the ink its labels need to stay readable.
+ * The clone map's colour scale: six steps of the share of cloned tokens in one hue, from the page's
+ * paper (nothing cloned) through pale verdigris to the deep green-black of the app's ink (half or
+ * more cloned). The step colours a rectangle's cloned band; `ink` is what a label on it needs to stay
+ * readable.
  */
 export const SHARE_STEPS = [
   { below: 1e-9, label: 'none', fill: '#eceae3', ink: '#1f2523' },
-  { below: 0.05, label: 'under 5 %', fill: '#d3e4dc', ink: '#1f2523' },
-  { below: 0.15, label: '5–15 %', fill: '#a6c9bb', ink: '#1f2523' },
-  { below: 0.3, label: '15–30 %', fill: '#ecd49a', ink: '#1f2523' },
-  { below: 0.5, label: '30–50 %', fill: '#d98f55', ink: '#1f2523' },
-  { below: Infinity, label: '50 % or more', fill: '#9c3328', ink: '#ffffff' },
+  { below: 0.05, label: 'under 5 %', fill: '#cfe2d9', ink: '#1f2523' },
+  { below: 0.15, label: '5–15 %', fill: '#9fc8b7', ink: '#1f2523' },
+  { below: 0.3, label: '15–30 %', fill: '#5f9f89', ink: '#1f2523' },
+  { below: 0.5, label: '30–50 %', fill: '#2d6e60', ink: '#ffffff' },
+  { below: Infinity, label: '50 % or more', fill: '#163d35', ink: '#ffffff' },
 ] as const;
+
+/** The ground of every rectangle: the part of its tokens that is not cloned. */
+export const UNCLONED_FILL = '#f4f2ec';
 
 /** The step of the scale a share falls in. */
 export function shareStep(share: number): (typeof SHARE_STEPS)[number] {
