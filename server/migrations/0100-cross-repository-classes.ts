@@ -9,8 +9,8 @@ import type { Migration } from '../db/migrate';
  *   latest ready snapshot of every other repository of the organisation (until now only counted).
  * - `cross_classes` / `cross_class_members`: the organisation's classes that span repositories,
  *   rebuilt after each load and each deletion of a repository from the cross pairs between the
- *   current latest snapshots and those snapshots' own classes. Snapshots loaded before this
- *   migration have no stored cross pairs: their classes across repositories appear with the next load.
+ *   current latest snapshots and those snapshots' own classes. Migration 0101 fills in the pairs
+ *   of snapshots loaded before this one.
  */
 export const up: Migration['up'] = async ({ sequelize }) => {
   await sequelize.query(`create index snapshots_latest_ready on snapshots (repository_id, id desc) where status = 'ready'`);
