@@ -9,6 +9,7 @@ import { ConflictError } from '../errors';
 import type { SnapshotSettings } from '../models/Snapshot';
 import { analysisOutcomes, findAnalyses, storeAnalyses, storeContents, storeSnapshotFiles, type SnapshotFileRow } from '../queries/files';
 import { findSnapshotByLabel, insertRunningSnapshot, markSnapshotFailed, markSnapshotReady } from '../queries/snapshots';
+import { queueLoadNotices } from '../mail/load-notices';
 import { organisationOfRepository } from '../queries/cross-classes';
 import { rebuildCrossClasses } from './crossClasses';
 import { deriveClones } from './deriveClones';
@@ -152,5 +153,6 @@ async function loadInto(tx: Transaction, snapshotId: number, input: LoadSnapshot
   await markSnapshotReady(tx, snapshotId, { ...counts, cloneRatio: derived.cloneRatio, timings });
   // 6. the organisation's classes across repositories, now that this snapshot is the latest ready one
   await rebuildCrossClasses(tx, await organisationOfRepository(tx, input.repository.id));
+  await queueLoadNotices(tx, snapshotId);
   return { snapshotId, ...counts, pairCount: derived.pairCount, classCount: derived.classCount, cloneRatio: derived.cloneRatio, timings };
 }
