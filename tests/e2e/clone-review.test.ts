@@ -64,6 +64,8 @@ describe('reviewing clones with Chromium', () => {
       await page.screenshot({ path: path.join(SCREENSHOTS, 'review-overview.png'), fullPage: true });
 
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Repositories' }).click();
+      // the overview's latest loads also have freight-platform rows: wait for the list page first
+      await page.getByRole('heading', { name: 'Repositories', exact: true }).waitFor();
       const row = page.getByRole('row', { name: /freight-platform/ });
       await row.waitFor();
       await expect(row.textContent()).resolves.toContain(v3Percent);
