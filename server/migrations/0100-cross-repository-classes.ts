@@ -12,6 +12,9 @@ import type { Migration } from '../db/migrate';
  *   current latest snapshots and those snapshots' own classes. Migration 0101 fills in the pairs
  *   of snapshots loaded before this one.
  */
+// Every column a cascade follows is indexed, so deleting a repository does not scan these tables
+// once per deleted row. Fragment ids carry no foreign key: a fragment is only deleted with the file
+// content no snapshot holds any more, by which time the rows that name it went with their snapshot file.
 export const up: Migration['up'] = async ({ sequelize }) => {
   await sequelize.query(`create index snapshots_latest_ready on snapshots (repository_id, id desc) where status = 'ready'`);
   await sequelize.query(`
@@ -22,15 +25,16 @@ export const up: Migration['up'] = async ({ sequelize }) => {
     create table cross_pairs (
       snapshot_id integer not null references snapshots(id) on delete cascade,
       snapshot_file_id integer not null references snapshot_files(id) on delete cascade,
-      fragment_id integer not null references fragments(id) on delete cascade,
+      fragment_id integer not null,
       other_snapshot_id integer not null references snapshots(id) on delete cascade,
       other_snapshot_file_id integer not null references snapshot_files(id) on delete cascade,
-      other_fragment_id integer not null references fragments(id) on delete cascade,
+      other_fragment_id integer not null,
       similarity double precision not null,
       clone_type integer not null
     )`);
   await sequelize.query(`create index cross_pairs_snapshot on cross_pairs (snapshot_id)`);
   await sequelize.query(`create index cross_pairs_other_snapshot on cross_pairs (other_snapshot_id)`);
+  await sequelize.query(`create index cross_pairs_file on cross_pairs (snapshot_file_id)`);
   await sequelize.query(`create index cross_pairs_other_file on cross_pairs (other_snapshot_file_id)`);
   await sequelize.query(`
     create table cross_classes (
@@ -52,11 +56,12 @@ export const up: Migration['up'] = async ({ sequelize }) => {
       cross_class_id integer not null references cross_classes(id) on delete cascade,
       snapshot_id integer not null references snapshots(id) on delete cascade,
       snapshot_file_id integer not null references snapshot_files(id) on delete cascade,
-      fragment_id integer not null references fragments(id) on delete cascade,
+      fragment_id integer not null,
       class_id integer references clone_classes(id) on delete set null,
       primary key (cross_class_id, snapshot_file_id, fragment_id)
     )`);
   await sequelize.query(`create index cross_class_members_file on cross_class_members (snapshot_file_id)`);
+  await sequelize.query(`create index cross_class_members_snapshot on cross_class_members (snapshot_id)`);
   await sequelize.query(`create index cross_class_members_class on cross_class_members (class_id)`);
 };
 
