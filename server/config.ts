@@ -106,6 +106,15 @@ export function loadConfig() {
       gitTimeoutSeconds: intFromEnv('DOUBLET_GIT_TIMEOUT_SECONDS', 300),
       /** Uploaded archives: in a temporary folder while the request streams them, then one file a snapshot until its load has read it. */
       uploadDir: path.resolve(process.env.DOUBLET_UPLOAD_DIR ?? path.join(dataDir, 'uploads')),
+      /**
+       * Folders under which a repository may be linked to a local path (an on-premise mirror);
+       * none by default, so a lead cannot point Doublet at whatever repository is on its disk.
+       */
+      gitLocalRoots: (process.env.DOUBLET_GIT_LOCAL_ROOTS ?? '')
+        .split(',')
+        .map((entry) => entry.trim())
+        .filter(Boolean)
+        .map((entry) => path.resolve(entry)),
     },
     /** Background loads of snapshots (server/jobs/snapshot-load.ts). */
     loads: {

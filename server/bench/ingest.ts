@@ -1,36 +1,66 @@
 import { spawn, type ChildProcess } from 'node:child_process';
-import crypto from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
 import { createRepository } from '../commands/createRepository';
 import { uploadSnapshot } from '../commands/uploadSnapshot';
-import { projectRoot } from '../config';
+import { loadConfig, projectRoot } from '../config';
 import { connect, disconnect } from '../db/connection';
 import { migrateUp } from '../db/migrate';
 import { createDatabaseIfMissing, dropDatabase, ensureDatabaseServer } from '../db/postgres';
-import { packFolder, readFolder } from '../ingest';
+import { packFolder } from '../ingest/pack';
 import { startJobs, stopJobs } from '../jobs';
-import { initModels } from '../models';
 import { Organisation } from '../models/Organisation';
-import { Snapshot } from '../models/Snapshot';
+import { initModels } from '../models';
+import { select } from '../clone-index/sql';
+import { JS_PACKAGES, loadPackages } from './quality/corpus';
 
 /**
- * `npm run bench:ingest [-- --loads 4 --workers 1,2 --keep]`: uploaded releases loaded per minute
- * with 1 and 2 worker processes (`server/worker.ts`) on this machine, printed as Markdown. Not a
- * test: it measures, it does not judge.
+ * `npm run bench:ingest [-- --loads 12 --files 60 --workers 1,2 --keep]`: loads per minute with 1
+ * and 2 worker processes (`npm run worker`) on this machine, printed as a Markdown table with the
+ * load average beside each figure. Not a test: it measures, it does not judge.
  *
- * Each load is sequelize 6.37.8's `lib` folder from node_modules (published code, 116 files,
- * 3.1 MB) as a tar.gz, each copy with a comment of its own at the end of every file so that no
- * load reuses another's analyses (the worst case: every file analysed, every set new). For each
- * worker count, a fresh database of its own (`doublet_bench_ingest`, dropped at the end unless
- * `--keep`), the workers are started, all uploads are queued at once, and the clock runs from the
- * first upload queued to the last snapshot ready.
+ * For each worker count, in a database of its own (`doublet_bench_ingest`, on the local cluster or
+ * DATABASE_URL's server; created fresh, dropped at the end unless `--keep`): it packs `--loads`
+ * releases of real published JavaScript (the first `--files` files of sequelize and express from
+ * the quality benchmark's corpus, each release with a different first line, so every file of every release is analysed
+ * and none is reused from another), queues each as an upload of a repository of its own (the
+ * same command the upload route calls: the archive is read and checked, a `snapshot.load` job
+ * queued), then starts the worker processes and times from the first load taken to the last
+ * load ended. The shingle sets repeat from the second release on, so the index grows little:
+ * this measures reading, analysis and storing, which is most of a load.
  */
 
 const BENCH_DATABASE = 'doublet_bench_ingest';
-const SOURCE = path.join(projectRoot, 'node_modules', 'sequelize', 'lib');
+
+interface Row {
+  workers: number;
+  loads: number;
+  failed: number;
+  seconds: number;
+  loadBefore: number;
+  loadAfter: number;
+  startSeconds: number;
+}
+
+/** Writes the releases' folders: the same files, each with a first line naming its release. */
+function writeReleases(root: string, count: number, fileCount: number): { bytes: number; files: number } {
+  const { files } = loadPackages(JS_PACKAGES);
+  // Application-style modules (an ORM and a web framework), not the corpus's multi-megabyte bundles.
+  const chosen = files.filter((f) => /^(sequelize|express)@/.test(f.source) && f.path.endsWith('.js')).slice(0, fileCount);
+  let bytes = 0;
+  for (let i = 0; i < count; i++) {
+    for (const file of chosen) {
+      const target = path.join(root, `release-${i}`, file.path);
+      fs.mkdirSync(path.dirname(target), { recursive: true });
+      const text = `// Brackenfold bench release ${i}\n${file.text}`;
+      fs.writeFileSync(target, text);
+      if (i === 0) bytes += Buffer.byteLength(text);
+    }
+  }
+  return { bytes, files: chosen.length };
+}
 
 async function prepareDatabase(): Promise<{ url: string; admin: string }> {
   const configured = new URL(await ensureDatabaseServer());
@@ -46,75 +76,136 @@ async function prepareDatabase(): Promise<{ url: string; admin: string }> {
   return { url, admin };
 }
 
-/** A salted copy of the source folder, packed as a tar.gz into `dir`. */
-async function saltedArchive(dir: string, salt: string): Promise<string> {
-  const copy = path.join(dir, `src-${salt}`);
-  const { files } = await readFolder(SOURCE);
-  for (const f of files) {
-    fs.mkdirSync(path.dirname(path.join(copy, f.path)), { recursive: true });
-    fs.writeFileSync(path.join(copy, f.path), Buffer.concat([Buffer.from(f.content), Buffer.from(`\n// ${salt}\n`)]));
+/** Queues one upload a release, each to a repository of its own. */
+async function queueUploads(releases: string, archives: string, count: number): Promise<void> {
+  const organisation = await Organisation.create({ name: 'Brackenfold Rail Freight (ingest bench)' });
+  for (let i = 0; i < count; i++) {
+    const repository = await createRepository(organisation.id, { name: `bench-release-${i}` });
+    const tempFile = path.join(archives, `release-${i}.tar.gz`);
+    await packFolder(path.join(releases, `release-${i}`), tempFile);
+    await uploadSnapshot({ repository, label: `r${i}`, tempFile, startedBy: null });
   }
-  const out = path.join(dir, `release-${salt}.tgz`);
-  await packFolder(copy, out);
-  fs.rmSync(copy, { recursive: true, force: true });
-  return out;
 }
 
-function startWorker(url: string, schema: string, uploadDir: string): ChildProcess {
-  return spawn(process.execPath, ['--import', 'tsx', path.join(projectRoot, 'server', 'worker.ts')], {
+function startWorker(url: string, uploadDir: string, output: string[]): ChildProcess {
+  const child = spawn(process.execPath, ['--import', 'tsx', path.join(projectRoot, 'server', 'worker.ts')], {
     cwd: projectRoot,
-    env: { ...process.env, DATABASE_URL: url, DOUBLET_JOBS_SCHEMA: schema, DOUBLET_UPLOAD_DIR: uploadDir, DOUBLET_EMBEDDED_WORKER: 'false' },
-    stdio: ['ignore', 'ignore', 'inherit'],
+    env: { ...process.env, DATABASE_URL: url, DOUBLET_UPLOAD_DIR: uploadDir, DOUBLET_TEST: '' },
+    stdio: ['ignore', 'pipe', 'pipe'],
   });
+  child.stdout!.on('data', (d: Buffer) => output.push(d.toString()));
+  child.stderr!.on('data', (d: Buffer) => output.push(d.toString()));
+  return child;
 }
 
-async function run(workers: number, loads: number, keep: boolean) {
+async function stopWorker(child: ChildProcess): Promise<void> {
+  if (child.exitCode !== null) return;
+  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
+  child.kill('SIGTERM');
+  await Promise.race([exited, new Promise((resolve) => setTimeout(resolve, 20_000))]);
+  if (child.exitCode === null) child.kill('SIGKILL');
+}
+
+const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
+
+async function measure(workers: number, count: number, releases: string, work: string): Promise<Row> {
   const { url, admin } = await prepareDatabase();
-  const schema = 'pgboss_bench';
-  const work = fs.mkdtempSync(path.join(os.tmpdir(), 'doublet-bench-ingest-'));
-  process.env.DOUBLET_UPLOAD_DIR = path.join(work, 'uploads');
-  await startJobs({ connectionString: url, schema });
-  const organisation = await Organisation.create({ name: 'Brackenfold Rail Freight (bench)' });
-  const archives = [];
-  for (let i = 0; i < loads; i++) archives.push(await saltedArchive(work, crypto.randomBytes(6).toString('hex')));
-  const children = Array.from({ length: workers }, () => startWorker(url, schema, process.env.DOUBLET_UPLOAD_DIR!));
-  const loadBefore = os.loadavg()[0]!;
-  const started = performance.now();
-  const ids: number[] = [];
-  for (let i = 0; i < loads; i++) {
-    const repository = await createRepository(organisation.id, { name: `sequelize-${i}` });
-    const { snapshot } = await uploadSnapshot({ repository, label: '6.37.8', tempFile: archives[i]!, startedBy: null });
-    ids.push(snapshot.id);
+  const uploadDir = path.join(work, `uploads-${workers}`);
+  process.env.DOUBLET_UPLOAD_DIR = uploadDir;
+  const archives = path.join(uploadDir, 'incoming');
+  fs.mkdirSync(archives, { recursive: true, mode: 0o700 });
+  const children: ChildProcess[] = [];
+  const output: string[] = [];
+  try {
+    await startJobs({ connectionString: url });
+    await queueUploads(releases, archives, count);
+    console.error(`${workers} worker(s): ${count} loads queued; starting the workers…`);
+    const loadBefore = os.loadavg()[0]!;
+    const spawned = performance.now();
+    for (let i = 0; i < workers; i++) children.push(startWorker(url, uploadDir, output));
+    let firstTaken: number | undefined;
+    type Counts = { active: number; ended: number; failed: number };
+    for (;;) {
+      const [counts] = await select<Counts>(
+        undefined,
+        `select count(*) filter (where status <> 'queued')::int as active,
+                count(*) filter (where status in ('ready', 'failed', 'cancelled'))::int as ended,
+                count(*) filter (where status in ('failed', 'cancelled'))::int as failed
+           from snapshots`,
+      );
+      if (firstTaken === undefined && counts!.active > 0) firstTaken = performance.now();
+      if (counts!.ended === count) {
+        const ended = performance.now();
+        return {
+          workers,
+          loads: count,
+          failed: counts!.failed,
+          seconds: (ended - firstTaken!) / 1000,
+          loadBefore,
+          loadAfter: os.loadavg()[0]!,
+          startSeconds: (firstTaken! - spawned) / 1000,
+        };
+      }
+      if (children.some((c) => c.exitCode !== null)) throw new Error(`a worker exited early:\n${output.join('')}`);
+      if (performance.now() - spawned > 60 * 60 * 1000) throw new Error('the loads took over an hour');
+      await sleep(200);
+    }
+  } finally {
+    for (const child of children) await stopWorker(child);
+    await stopJobs({ timeoutMs: 1000 });
+    await disconnect();
+    if (process.argv.includes('--keep')) console.error(`kept ${BENCH_DATABASE} (${workers} workers)`);
+    else await dropDatabase(BENCH_DATABASE, admin);
   }
-  for (;;) {
-    const snapshots = await Snapshot.findAll({ where: { id: ids } });
-    const failed = snapshots.find((s) => s.status === 'failed' || s.status === 'cancelled');
-    if (failed) throw new Error(`load ${failed.id} ended ${failed.status}: ${failed.error}`);
-    if (snapshots.every((s) => s.status === 'ready')) break;
-    await new Promise((resolve) => setTimeout(resolve, 250));
-  }
-  const seconds = (performance.now() - started) / 1000;
-  const loadAfter = os.loadavg()[0]!;
-  for (const child of children) child.kill('SIGTERM');
-  await Promise.all(children.map((c) => new Promise((resolve) => (c.exitCode === null ? c.once('exit', resolve) : resolve(null)))));
-  await stopJobs();
-  await disconnect();
-  if (!keep) await dropDatabase(BENCH_DATABASE, admin);
-  fs.rmSync(work, { recursive: true, force: true });
-  return { workers, loads, seconds, perMinute: (loads / seconds) * 60, loadBefore, loadAfter };
 }
 
 async function main() {
-  const { values } = parseArgs({ options: { loads: { type: 'string', default: '4' }, workers: { type: 'string', default: '1,2' }, keep: { type: 'boolean', default: false } } });
-  const loads = Number(values.loads);
-  const counts = values.workers.split(',').map(Number);
-  console.log(`Each load: sequelize 6.37.8 lib (node_modules), salted, every file analysed. ${os.availableParallelism()} cores, node ${process.version}.\n`);
-  console.log('| worker processes | loads | wall time | loads per minute | load average (1 min) before → after |');
-  console.log('| ---: | ---: | ---: | ---: | --- |');
-  for (const workers of counts) {
-    const r = await run(workers, loads, values.keep);
-    console.log(`| ${r.workers} | ${r.loads} | ${r.seconds.toFixed(1)} s | ${r.perMinute.toFixed(2)} | ${r.loadBefore.toFixed(2)} → ${r.loadAfter.toFixed(2)} |`);
+  const { values } = parseArgs({
+    options: {
+      loads: { type: 'string', default: '12' },
+      files: { type: 'string', default: '60' },
+      workers: { type: 'string', default: '1,2' },
+      keep: { type: 'boolean' },
+    },
+  });
+  const count = Number(values.loads);
+  const fileCount = Number(values.files);
+  const workerCounts = values.workers.split(',').map(Number);
+  if (!Number.isInteger(count) || count < 1 || count > 100) throw new Error('--loads is 1..100');
+  if (!Number.isInteger(fileCount) || fileCount < 1 || fileCount > 2000) throw new Error('--files is 1..2000');
+  if (workerCounts.some((n) => !Number.isInteger(n) || n < 1 || n > 16)) throw new Error('--workers is a list of 1..16');
+
+  const work = fs.mkdtempSync(path.join(os.tmpdir(), 'doublet-bench-ingest-'));
+  try {
+    const releases = path.join(work, 'releases');
+    const size = writeReleases(releases, count, fileCount);
+    const rows: Row[] = [];
+    for (const workers of workerCounts) {
+      const row = await measure(workers, count, releases, work);
+      console.error(`  ${workers} worker(s): ${((row.loads / row.seconds) * 60).toFixed(1)} loads/min`);
+      rows.push(row);
+    }
+    print(rows, size);
+  } finally {
+    fs.rmSync(work, { recursive: true, force: true });
   }
+}
+
+function print(rows: Row[], size: { bytes: number; files: number }) {
+  const { loads } = loadConfig();
+  console.log(
+    `\n${os.availableParallelism()} cores, Node ${process.version}; a load: ${size.files} JavaScript files, ${(size.bytes / 1e6).toFixed(2)} MB; ` +
+      `each worker runs ${loads.perWorker} loads at once on ${loads.analyzerThreads} analyzer threads (DOUBLET_LOADS_PER_WORKER, DOUBLET_ANALYZER_THREADS)\n`,
+  );
+  console.log('| worker processes | loads | minutes, first taken → last ended | loads per minute | load average (1 min) before → after |');
+  console.log('| ---: | ---: | ---: | ---: | --- |');
+  for (const r of rows) {
+    const failed = r.failed > 0 ? ` (${r.failed} failed)` : '';
+    console.log(
+      `| ${r.workers} | ${r.loads}${failed} | ${(r.seconds / 60).toFixed(2)} | ${((r.loads / r.seconds) * 60).toFixed(1)} | ${r.loadBefore.toFixed(2)} → ${r.loadAfter.toFixed(2)} |`,
+    );
+  }
+  console.log(`\nworker start-up (spawn → first load taken): ${rows.map((r) => `${r.workers}: ${r.startSeconds.toFixed(1)} s`).join(', ')}`);
 }
 
 main().catch((error: unknown) => {

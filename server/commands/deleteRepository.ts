@@ -3,13 +3,14 @@ import { deleteStoredArchive } from '../ingest';
 import type { Repository } from '../models/Repository';
 import { deleteUnheldContents, lockContents } from '../queries/files';
 import { unfinishedLoadIds } from '../queries/snapshots';
+import { deleteGitMirror } from './gitRemotes';
 
 /**
  * Deletes a repository, its snapshots (files, classes, metrics go with them), the archives its
- * queued or running loads were keeping, and every stored file text that no snapshot of any
- * repository holds any more (its analyses and fragments go with it). Shingle sets and set pairs
- * stay: they hold hashes of normalized tokens, not code. A load of it still running stops at its
- * next checkpoint (its snapshot is gone) and writes nothing.
+ * queued or running loads were keeping, its git mirror, and every stored file text that no
+ * snapshot of any repository holds any more (its analyses and fragments go with it). Shingle sets
+ * and set pairs stay: they hold hashes of normalized tokens, not code. A load of it still running
+ * stops at its next checkpoint (its snapshot is gone) and writes nothing.
  */
 export async function deleteRepository(repository: Repository): Promise<void> {
   const loads = await db().transaction(async (tx) => {
@@ -21,4 +22,6 @@ export async function deleteRepository(repository: Repository): Promise<void> {
     return ids;
   });
   for (const id of loads) await deleteStoredArchive(id);
+  // After the commit: a failed delete keeps its mirror. (The link row went with the repository.)
+  await deleteGitMirror(repository.id);
 }

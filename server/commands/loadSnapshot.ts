@@ -11,6 +11,7 @@ import { analysisOutcomes, findAnalyses, lockContents, storeAnalyses, storeConte
 import { findSnapshotByLabel, insertRunningSnapshot, lockLoadingSnapshot, lockRepositoryLoads, markSnapshotFailed, markSnapshotReady } from '../queries/snapshots';
 import { queueLoadNotices } from '../mail/load-notices';
 import { deriveClones } from './deriveClones';
+import { settleTasks } from './settleTasks';
 
 /** What to load: a repository's files at one release. */
 export interface LoadSnapshotInput {
@@ -227,6 +228,7 @@ async function loadRound(
     lap('files');
 
     const derived = await deriveClones(tx, snapshotId, input.repository);
+    await settleTasks(tx, snapshotId, input.repository.id); // refactor tasks whose copies are gone, or back (commands/settleTasks.ts)
     lap('classes');
 
     const counts = {

@@ -1,4 +1,5 @@
 import type { JobDefinition } from './definition';
+import { gitImportJob } from './git-import';
 import { loadNoticesJob } from './load-notices';
 import { mailSendJob } from './mail-send';
 import { snapshotLoadAbandonedJob, snapshotLoadJob } from './snapshot-load';
@@ -11,6 +12,7 @@ export const JOBS = {
   'mail.send': mailSendJob,
   'snapshot.load': snapshotLoadJob,
   'snapshot.load-abandoned': snapshotLoadAbandonedJob,
+  'git.import': gitImportJob,
   'load.notices': loadNoticesJob,
 } as const;
 

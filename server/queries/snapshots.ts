@@ -216,6 +216,28 @@ export function insertSnapshotMetrics(tx: Transaction, snapshotId: number, m: Sn
   );
 }
 
+/**
+ * Inserts a snapshot row already failed, with its reason: a release that could not even be read
+ * (a git tag over the limits) still shows in the list, and its label stays taken.
+ */
+export async function insertFailedSnapshot(snapshot: NewSnapshot, reason: string): Promise<number> {
+  const [{ id }] = await select<{ id: number }>(
+    undefined,
+    `insert into snapshots (repository_id, label, source, commit_sha, status, error, settings)
+     values ($1, $2, $3, $4, 'failed', $5, $6) returning id`,
+    [snapshot.repositoryId, snapshot.label, snapshot.source, snapshot.commitSha, reason, JSON.stringify(snapshot.settings)],
+  );
+  return id;
+}
+
+/**
+ * Deletes a snapshot whose load did not finish (failed, or left running by a worker that died),
+ * so that its release can be loaded again; a ready snapshot is never deleted here.
+ */
+export function deleteUnfinishedSnapshot(snapshotId: number): Promise<void> {
+  return execute(undefined, `delete from snapshots where id = $1 and status <> 'ready'`, [snapshotId]);
+}
+
 /** A snapshot's release label (inside its load's transaction too), or undefined. */
 export async function snapshotLabel(tx: Transaction | undefined, snapshotId: number): Promise<string | undefined> {
   const [row] = await select<{ label: string }>(tx, 'select label from snapshots where id = $1', [snapshotId]);

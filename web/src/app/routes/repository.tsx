@@ -7,6 +7,7 @@ import { PageHeader } from '@/components/page-header';
 import { Panel } from '@/components/panel';
 import { formatPercent } from '@/lib/format';
 import { useSession } from '@/features/auth/api/get-session';
+import { GitReleasesPanel } from '@/features/git-releases/components/git-releases-panel';
 import { useRepository } from '@/features/repositories/api/get-repository';
 import { useRepositorySnapshots } from '@/features/repositories/api/get-repository-snapshots';
 import { OverBudgetMarker } from '@/features/repositories/components/budget-marker';
@@ -19,7 +20,7 @@ import { UploadForm } from '@/features/uploads/components/upload-form';
 
 /**
  * /repositories/:id: the trend, the snapshots, loads in progress, and (for engineers and above)
- * "Upload a release"; (for leads) settings and delete.
+ * "Upload a release" and git releases; (for leads) settings and delete.
  */
 export function RepositoryRoute() {
   const id = Number(useParams().id);
@@ -91,6 +92,11 @@ export function RepositoryRoute() {
             {mayUpload ? (
               <Panel title="Upload a release">
                 <UploadForm repositoryId={id} onQueued={(snapshotId) => setFollowed((ids) => (ids.includes(snapshotId) ? ids : [...ids, snapshotId]))} />
+              </Panel>
+            ) : null}
+            {mayUpload ? (
+              <Panel title="Git releases">
+                <GitReleasesPanel repositoryId={id} mayLink={mayUpdate} />
               </Panel>
             ) : null}
             {mayUpdate ? (
