@@ -255,3 +255,12 @@ export async function crossClassMembers(crossClassId: number): Promise<{ members
   }
   return { members, pairs: pairs.sort((x, y) => x.a - y.a || x.b - y.b) };
 }
+
+/**
+ * Takes the organisation's load lock until the transaction ends: a load's last step (its pairs
+ * across repositories and the rebuild of the classes across them) and a repository's deletion
+ * run one at a time in an organisation. Taken after the contents and repository load locks.
+ */
+export function lockOrganisationLoads(tx: Transaction, organisationId: string): Promise<void> {
+  return execute(tx, `select pg_advisory_xact_lock(hashtextextended('doublet.organisation-loads:' || $1, 0))`, [organisationId]);
+}

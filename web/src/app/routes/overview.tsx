@@ -14,6 +14,7 @@ import { LatestLoads } from '@/features/organisation/components/latest-loads';
 import { OrganisationTrendChart } from '@/features/organisation/components/organisation-trend-chart';
 import { useRepositories } from '@/features/repositories/api/get-repositories';
 import { OverBudgetMarker } from '@/features/repositories/components/budget-marker';
+import { MyOpenTasks } from '@/features/tasks/components/my-open-tasks';
 
 interface Figure {
   label: string;
@@ -88,18 +89,6 @@ function OverBudgetList({ repositories }: { repositories: RepositoryDTO[] }) {
   );
 }
 
-/**
- * The place of the reader's open refactor tasks. The tasks feature fills it; until then it says
- * what will be here instead of showing anything made up.
- */
-function OpenTasksSlot() {
-  return (
-    <Panel title="Your open tasks">
-      <p className="rounded-sm border border-dashed border-line px-3 py-4 text-sm text-muted">Refactor tasks assigned to you will be listed here once tasks can be assigned.</p>
-    </Panel>
-  );
-}
-
 /** /: what needs attention across the organisation, from the latest release of each repository. */
 export function OverviewRoute() {
   const session = useSession();
@@ -129,7 +118,7 @@ export function OverviewRoute() {
           <Panel title="Newly drifted classes">
             <DriftedClasses />
           </Panel>
-          <OpenTasksSlot />
+          <MyOpenTasks />
         </div>
       </div>
     </div>

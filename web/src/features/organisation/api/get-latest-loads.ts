@@ -1,5 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { LatestLoadsDTO } from '@shared/api/organisation';
+import { isLoadActive } from '@shared/api/snapshots';
 import { api } from '@/lib/api-client';
 
 /** GET /api/organisation/loads: the most recent snapshots of every repository, whatever their status. */
@@ -13,7 +14,7 @@ export function useLatestLoads(limit: number) {
     queryOptions({
       queryKey: ['organisation', 'loads', limit],
       queryFn: () => getLatestLoads(limit),
-      refetchInterval: (query) => (query.state.data?.loads.some((l) => l.status === 'pending' || l.status === 'running') ? 5000 : false),
+      refetchInterval: (query) => (query.state.data?.loads.some((l) => isLoadActive(l.status)) ? 5000 : false),
     }),
   );
 }

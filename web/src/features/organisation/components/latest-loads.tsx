@@ -8,8 +8,9 @@ import { useLatestLoads } from '@/features/organisation/api/get-latest-loads';
 const STATUS_TONES: Record<SnapshotStatus, string> = {
   ready: 'bg-accent-soft text-accent-strong',
   running: 'bg-amber-soft text-amber-strong',
-  pending: 'bg-paper text-muted border border-line',
+  queued: 'bg-paper text-muted border border-line',
   failed: 'bg-danger-soft text-danger',
+  cancelled: 'bg-paper text-muted border border-line',
 };
 
 /** The latest loads of every repository, newest first, with where each stands. */
