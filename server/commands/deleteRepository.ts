@@ -1,7 +1,6 @@
 import { db } from '../db/connection';
 import { deleteStoredArchive } from '../ingest';
 import type { Repository } from '../models/Repository';
-import { lockOrganisationLoads } from '../queries/cross-classes';
 import { deleteUnheldContents, lockContents } from '../queries/files';
 import { unfinishedLoadIds } from '../queries/snapshots';
 import { rebuildCrossClasses } from './crossClasses';
@@ -12,16 +11,14 @@ import { deleteGitMirror } from './gitRemotes';
  * queued or running loads were keeping, its git mirror, and every stored file text that no
  * snapshot of any repository holds any more (its analyses and fragments go with it). Shingle sets
  * and set pairs stay: they hold hashes of normalized tokens, not code. A load of it still running
- * stops at its next checkpoint (its snapshot is gone) and writes nothing. The organisation's classes
- * across repositories are rebuilt without it.
+ * stops at its next checkpoint (its snapshot is gone) and writes nothing. The organisation's
+ * classes across repositories are rebuilt without it.
  */
 export async function deleteRepository(repository: Repository): Promise<void> {
   const loads = await db().transaction(async (tx) => {
     // Waits for loads finishing (they hold texts another repository's snapshot may be about to share).
     await lockContents(tx, 'delete');
     const ids = await unfinishedLoadIds(tx, repository.id);
-    // after any load's last step in the organisation, so the classes across repositories are rebuilt from settled snapshots
-    await lockOrganisationLoads(tx, repository.organisationId);
     await repository.destroy({ transaction: tx });
     await deleteUnheldContents(tx);
     await rebuildCrossClasses(tx, repository.organisationId);

@@ -8,9 +8,9 @@ import { db } from '../db/connection';
 import { ConflictError, fromDatabaseError } from '../errors';
 import type { SnapshotSettings } from '../models/Snapshot';
 import { analysisOutcomes, findAnalyses, lockContents, storeAnalyses, storeContents, storeSnapshotFiles, type SnapshotFileRow } from '../queries/files';
-import { findSnapshotByLabel, insertRunningSnapshot, lockLoadingSnapshot, lockRepositoryLoads, markSnapshotFailed, markSnapshotReady } from '../queries/snapshots';
+import { findSnapshotByLabel, insertRunningSnapshot, lockLoadingSnapshot, lockOrganisationLoads, markSnapshotFailed, markSnapshotReady } from '../queries/snapshots';
 import { queueLoadNotices } from '../mail/load-notices';
-import { lockOrganisationLoads, organisationOfRepository } from '../queries/cross-classes';
+import { organisationOfRepository } from '../queries/cross-classes';
 import { rebuildCrossClasses } from './crossClasses';
 import { deriveClones } from './deriveClones';
 import { settleTasks } from './settleTasks';
@@ -205,10 +205,8 @@ async function loadRound(
   progress('deriving', 0, 0);
   return db().transaction(async (tx) => {
     await lockContents(tx, 'load');
-    await lockRepositoryLoads(tx, input.repository.id);
-    // one last step at a time in an organisation: each load's pairs across repositories are found
-    // against the others' latest snapshots as committed, so no two new snapshots miss each other
     const organisationId = await organisationOfRepository(tx, input.repository.id);
+    if (organisationId === null) throw new LoadStoppedError('gone');
     await lockOrganisationLoads(tx, organisationId);
     const row = await lockLoadingSnapshot(tx, snapshotId);
     if (!row) throw new LoadStoppedError('gone');

@@ -165,10 +165,10 @@ export async function replaceCrossClasses(tx: Transaction, organisationId: strin
   );
 }
 
-/** The organisation a repository belongs to. */
-export async function organisationOfRepository(tx: Transaction | undefined, repositoryId: number): Promise<string> {
+/** The organisation a repository belongs to (null once the repository is deleted). */
+export async function organisationOfRepository(tx: Transaction | undefined, repositoryId: number): Promise<string | null> {
   const [row] = await select<{ organisationId: string }>(tx, 'select organisation_id as "organisationId" from repositories where id = $1', [repositoryId]);
-  return row.organisationId;
+  return row?.organisationId ?? null;
 }
 
 /** A class across repositories as its page shows it (without members). */
@@ -254,13 +254,4 @@ export async function crossClassMembers(crossClassId: number): Promise<{ members
     pairs.push({ a: Math.min(x, y), b: Math.max(x, y), similarity: p.similarity, type: p.cloneType });
   }
   return { members, pairs: pairs.sort((x, y) => x.a - y.a || x.b - y.b) };
-}
-
-/**
- * Takes the organisation's load lock until the transaction ends: a load's last step (its pairs
- * across repositories and the rebuild of the classes across them) and a repository's deletion
- * run one at a time in an organisation. Taken after the contents and repository load locks.
- */
-export function lockOrganisationLoads(tx: Transaction, organisationId: string): Promise<void> {
-  return execute(tx, `select pg_advisory_xact_lock(hashtextextended('doublet.organisation-loads:' || $1, 0))`, [organisationId]);
 }
