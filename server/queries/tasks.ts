@@ -259,7 +259,7 @@ export async function lineageInLatestSnapshot(lineageId: number, repositoryId: n
   const [row] = await select<{ present: boolean; label: string | null }>(
     undefined,
     `select exists (select 1 from clone_classes c where c.snapshot_id = s.id and c.lineage_id = $1) as present, s.label
-       from snapshots s where s.repository_id = $2 and s.status = 'ready' order by s.id desc limit 1`,
+       from latest_ready_snapshots l join snapshots s on s.id = l.snapshot_id where l.repository_id = $2`,
     [lineageId, repositoryId],
   );
   return row ?? { present: false, label: null };
@@ -381,9 +381,9 @@ export function latestClassesOfOrganisation(organisationId: string, limit: numbe
   return select(
     undefined,
     `with latest as (
-       select distinct on (s.repository_id) s.id, r.name as repository_name
-         from snapshots s join repositories r on r.id = s.repository_id
-        where r.organisation_id = $1 and s.status = 'ready' order by s.repository_id, s.id desc)
+       select l.snapshot_id as id, r.name as repository_name
+         from latest_ready_snapshots l join repositories r on r.id = l.repository_id
+        where r.organisation_id = $1)
      select c.id, c.size,
             (select f.name from clone_class_members m join snapshot_files sf on sf.id = m.snapshot_file_id join fragments f on f.id = m.fragment_id
               where m.class_id = c.id order by sf.path, f.start_line limit 1) as "memberName"

@@ -21,8 +21,8 @@ import { LoadProgress } from '@/features/uploads/components/load-progress';
 import { UploadForm } from '@/features/uploads/components/upload-form';
 
 /**
- * /repositories/:id: the trend, the classes by release, the clone map, the snapshots, loads in
- * progress, and (for engineers and above) "Upload a release" and git releases; (for leads)
+ * /repositories/:id: loads in progress, the trend and the classes by release beside the clone map,
+ * the snapshots, and (for engineers and above) "Upload a release" and git releases; (for leads)
  * settings and delete.
  */
 export function RepositoryRoute() {
