@@ -23,6 +23,12 @@ export interface LoadSnapshotInput {
   /** new sets per probe query (results do not depend on it) */
   batchSize?: number;
   workers?: number;
+  /**
+   * What analyses the files never analysed under these options (default: analyzeFiles, a pool of
+   * its own for this load). The demo seed passes one that answers from a single analysis of every
+   * release, to spare a pool start-up per load.
+   */
+  analyze?: typeof analyzeFiles;
 }
 
 /** Counts and timings of a load. */
@@ -103,7 +109,7 @@ async function loadInto(tx: Transaction, snapshotId: number, input: LoadSnapshot
   const toAnalyze = new Map<string, SourceFile>();
   for (const k of kept) if (!analysisIds.has(k.hash) && !toAnalyze.has(k.hash)) toAnalyze.set(k.hash, k.file);
   const hashes = [...toAnalyze.keys()];
-  const analyzed = await analyzeFiles([...toAnalyze.values()], { ...options, ignore: [], workers: input.workers });
+  const analyzed = await (input.analyze ?? analyzeFiles)([...toAnalyze.values()], { ...options, ignore: [], workers: input.workers });
   lap('analyze');
   const byPath = new Map(analyzed.files.map((f) => [f.path, f]));
   const skippedByPath = new Map(analyzed.skipped.map((s) => [s.path, s.reason]));
