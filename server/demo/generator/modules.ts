@@ -31,7 +31,7 @@ function context(rng: Random, entity: Entity, module: Module, partners: string[]
 /** What tells apart two modules on one topic. */
 const VARIANTS = ['legacy', 'regional', 'bulk', 'night', 'export', 'batch', 'manual', 'v2'];
 
-/** A module of an area about one of its records, with `size` functions. */
+/** A module of an area about one of its records, with `size` functions; a fixed name is taken as it is (the story reserves it). */
 export function newModule(rng: Random, area: Area, partners: string[], taken: Set<string>, size: number, fixedName?: string): Module {
   let entity = ENTITIES[area.entities[0]];
   let name = fixedName ?? '';
@@ -40,7 +40,7 @@ export function newModule(rng: Random, area: Area, partners: string[], taken: Se
     name = `${area.folder}/${kebab(entity.noun)}-${rng.pick(area.topics)}`;
   }
   const base = name;
-  for (let i = 0; taken.has(name); i++) name = i < VARIANTS.length ? `${base}-${VARIANTS[i]}` : `${base}-${i}`;
+  for (let i = 0; taken.has(name) && !fixedName; i++) name = i < VARIANTS.length ? `${base}-${VARIANTS[i]}` : `${base}-${i}`;
   taken.add(name);
   const module: Module = { name, doc: `${entity.noun[0].toUpperCase()}${entity.noun.slice(1)} ${name.slice(name.lastIndexOf('-') + 1)} for ${area.folder}.`, records: [], functions: [] };
   const order = kindOrder(rng);

@@ -27,6 +27,8 @@ export interface RepositoryPlan {
   everyDays: number;
   firstModules: number;
   finalModules: number;
+  /** module names the story gives its own modules, kept from the everyday ones */
+  reserved: string[];
 }
 
 export interface DemoRelease {
@@ -81,7 +83,7 @@ export const PLANS: RepositoryPlan[] = [
     name: 'consignment-billing',
     description: 'Tariffs, charges and invoices for every consignment Brackenfold carries.',
     layout: { language: 'typescript', root: 'src' },
-    cloneBudget: 0.3,
+    cloneBudget: 0.33,
     entities: ['Consignment', 'Tariff', 'Invoice', 'Wagon', 'Depot'],
     areas: [
       { folder: 'tariffs', entities: ['Tariff', 'Consignment'], topics: ['bands', 'rates', 'surcharges', 'lookup', 'rules', 'indexation', 'quotes'] },
@@ -93,14 +95,15 @@ export const PLANS: RepositoryPlan[] = [
     labels: labels(10, (i) => `2025.${String(i + 1).padStart(2, '0')}`),
     firstDay: '2025-01-14',
     everyDays: 30,
-    firstModules: 26,
-    finalModules: 44,
+    firstModules: 32,
+    finalModules: 54,
+    reserved: ['tariffs/domestic-charges', 'tariffs/international-charges', 'consignments/intake-rules'],
   },
   {
     name: 'manifest-gateway',
     description: 'Receives consignment manifests from customers and hands them to planning.',
     layout: { language: 'typescript', root: 'src' },
-    cloneBudget: 0.25,
+    cloneBudget: 0.3,
     entities: ['Manifest', 'Consignment', 'Wagon', 'TrainPath'],
     areas: [
       { folder: 'intake', entities: ['Manifest', 'Consignment'], topics: ['parsing', 'checks', 'amendments', 'queues', 'duplicates', 'retries'] },
@@ -111,14 +114,15 @@ export const PLANS: RepositoryPlan[] = [
     labels: labels(9, (i) => `2.${i}.0`),
     firstDay: '2025-02-03',
     everyDays: 33,
-    firstModules: 18,
-    finalModules: 32,
+    firstModules: 22,
+    finalModules: 40,
+    reserved: ['intake/consignment-checks'],
   },
   {
     name: 'yard-planner',
     description: 'Plans shunting, siding use and wagon allocation in the yards.',
     layout: { language: 'java', root: 'com.brackenfold.yard' },
-    cloneBudget: 0.4,
+    cloneBudget: 0.5,
     entities: ['Wagon', 'Siding', 'Depot', 'Locomotive', 'TrainPath'],
     areas: [
       { folder: 'allocation', entities: ['Wagon', 'Locomotive'], topics: ['allocation', 'pools', 'swaps', 'reservations', 'transfers', 'balancing'] },
@@ -130,8 +134,9 @@ export const PLANS: RepositoryPlan[] = [
     labels: labels(11, (i) => `r${17 + i}`),
     firstDay: '2025-01-06',
     everyDays: 27,
-    firstModules: 28,
-    finalModules: 46,
+    firstModules: 34,
+    finalModules: 56,
+    reserved: ['messages/consist-message-v1', 'messages/consist-message-v2'],
   },
   {
     name: 'timetable-planner',
@@ -148,14 +153,15 @@ export const PLANS: RepositoryPlan[] = [
     labels: labels(8, (i) => `3.${i + 1}.0`),
     firstDay: '2025-01-27',
     everyDays: 40,
-    firstModules: 22,
-    finalModules: 36,
+    firstModules: 27,
+    finalModules: 44,
+    reserved: [],
   },
   {
     name: 'depot-maintenance',
     description: 'Inspections, work orders and wagon repairs at the maintenance depots.',
     layout: { language: 'python', root: 'depot_maintenance' },
-    cloneBudget: 0.4,
+    cloneBudget: 0.45,
     entities: ['Inspection', 'WorkOrder', 'Wagon', 'Depot'],
     areas: [
       { folder: 'inspections', entities: ['Inspection', 'Wagon'], topics: ['schedule', 'findings', 'rules', 'certificates', 'defects', 'sampling'] },
@@ -166,8 +172,9 @@ export const PLANS: RepositoryPlan[] = [
     labels: labels(12, (i) => `v1.${i}`),
     firstDay: '2025-01-03',
     everyDays: 25,
-    firstModules: 24,
-    finalModules: 42,
+    firstModules: 30,
+    finalModules: 52,
+    reserved: ['inspections/brake-checks', 'inspections/bogie-checks'],
   },
 ];
 
@@ -185,7 +192,9 @@ class Repository {
   readonly modules: Module[] = [];
   readonly frozen = new Set<string>();
   readonly names = new Set<string>();
-  constructor(readonly plan: RepositoryPlan) {}
+  constructor(readonly plan: RepositoryPlan) {
+    for (const name of plan.reserved) this.names.add(name);
+  }
 
   module(name: string): Module {
     const found = this.modules.find((m) => m.name === name);
