@@ -9,6 +9,7 @@ import { projectRoot } from '../config';
 import { connect, disconnect } from '../db/connection';
 import { migrateUp } from '../db/migrate';
 import { createDatabaseIfMissing, dropDatabase, ensureDatabaseServer } from '../db/postgres';
+import { startJobs, stopJobs } from '../jobs';
 import { initModels } from '../models';
 
 /**
@@ -113,8 +114,11 @@ async function prepareDatabase(): Promise<{ url: string; admin: string }> {
   const sequelize = connect(url);
   await migrateUp(sequelize);
   initModels(sequelize);
+  // loads queue their notices as `npm start` does (the server's embedded worker sends them later)
+  await startJobs({ connectionString: url });
   const organisation = await seedDemo({ log: (line) => console.error(line) });
   if (!organisation) throw new Error('the bench database was not empty');
+  await stopJobs();
   await disconnect();
   return { url, admin };
 }

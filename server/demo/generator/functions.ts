@@ -74,9 +74,8 @@ function literalFor(c: KindContext, x: EntityField): Expr {
 }
 
 /** One test on a record's field: a status, a flag, a bound, a code or a date. */
-function condition(c: KindContext, entity: Entity, item: string, params: Params): Expr {
+function condition(c: KindContext, entity: Entity, item: string, params: Params, x: EntityField = c.rng.pick(entity.fields)): Expr {
   const { rng } = c;
-  const x = rng.pick(entity.fields);
   const field = f(item, x.name);
   switch (x.role) {
     case 'status':
@@ -107,7 +106,7 @@ function condition(c: KindContext, entity: Entity, item: string, params: Params)
 }
 
 function conditions(c: KindContext, entity: Entity, item: string, params: Params, n: number): Expr {
-  const items = Array.from({ length: n }, () => condition(c, entity, item, params));
+  const items = c.rng.some(entity.fields, n).map((x) => condition(c, entity, item, params, x));
   return items.length === 1 ? items[0] : { e: c.rng.chance(0.75) ? 'and' : 'or', items };
 }
 
@@ -513,7 +512,10 @@ function incidental(c: KindContext, entity: Entity, item: string, params: Params
     const values = rng.some([f(item, code.name), ...entity.fields.filter((x) => x.role !== 'flag').map((x) => f(item, x.name))], rng.int(1, 3));
     return [{ s: 'log', level: rng.pick(['info', 'warn']), message: rng.pick([`${entity.noun} checked`, `looking at ${entity.noun}`, `${entity.noun} skipped`, `${entity.noun} over limit`, `using ${entity.noun}`]), values }];
   }
-  const [a, b] = rng.some(numbers, 2);
+  // two figures of one kind where the record has them: tonnes against tonnes, money against money
+  const alike = numbers.filter((x) => numbers.some((y) => y !== x && y.role === x.role));
+  const a = rng.pick(alike.length ? alike : numbers);
+  const b = rng.pick(numbers.filter((y) => y !== a && (!alike.length || y.role === a.role)));
   switch (shape) {
     case 1:
       return [

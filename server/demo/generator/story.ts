@@ -83,7 +83,7 @@ export const PLANS: RepositoryPlan[] = [
     name: 'consignment-billing',
     description: 'Tariffs, charges and invoices for every consignment Brackenfold carries.',
     layout: { language: 'typescript', root: 'src' },
-    cloneBudget: 0.33,
+    cloneBudget: 0.37,
     entities: ['Consignment', 'Tariff', 'Invoice', 'Wagon', 'Depot'],
     areas: [
       { folder: 'tariffs', entities: ['Tariff', 'Consignment'], topics: ['bands', 'rates', 'surcharges', 'lookup', 'rules', 'indexation', 'quotes'] },
@@ -103,7 +103,7 @@ export const PLANS: RepositoryPlan[] = [
     name: 'manifest-gateway',
     description: 'Receives consignment manifests from customers and hands them to planning.',
     layout: { language: 'typescript', root: 'src' },
-    cloneBudget: 0.3,
+    cloneBudget: 0.35,
     entities: ['Manifest', 'Consignment', 'Wagon', 'TrainPath'],
     areas: [
       { folder: 'intake', entities: ['Manifest', 'Consignment'], topics: ['parsing', 'checks', 'amendments', 'queues', 'duplicates', 'retries'] },
@@ -318,7 +318,7 @@ export function generateDemo(seed = DEMO_SEED): Demo {
       if (plan.name === 'consignment-billing') {
         const area: Area = { folder: 'tariffs', entities: ['Consignment'], topics: [] };
         if (release === 0) {
-          repo.plant(planted, area, 'tariffs/domestic-charges', 30);
+          repo.plant(planted, area, 'tariffs/domestic-charges', 40);
           const intake: Area = { folder: 'consignments', entities: ['Consignment'], topics: [] };
           shared.module = repo.plant(planted, intake, 'consignments/intake-rules', 9);
           shared.path = repo.path('consignments/intake-rules');
