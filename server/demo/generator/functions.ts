@@ -255,7 +255,10 @@ const charge: Kind = (c) => {
   for (const step of steps) {
     if (step === 'floor') {
       const floor = pickField(c, P, 'money') ?? pickField(c, E, 'money');
-      if (floor) body.push({ s: 'if', test: bin('<', v('amount'), f(rng.chance(0.5) && P.fields.includes(floor) ? P.one : P.fields.includes(floor) ? P.one : E.one, floor.name)), then: [{ s: 'set', name: 'amount', value: f(P.fields.includes(floor) ? P.one : E.one, floor.name) }] });
+      if (floor) {
+        const owner = P.fields.includes(floor) ? P.one : E.one;
+        body.push({ s: 'if', test: bin('<', v('amount'), f(owner, floor.name)), then: [{ s: 'set', name: 'amount', value: f(owner, floor.name) }] });
+      }
     } else if (step === 'flag') {
       const flag = pickField(c, E, 'flag');
       const rate = pickField(c, P, 'rate');
