@@ -31,6 +31,11 @@ export interface AddSetsResult {
 export interface AddSetsOptions {
   /** how many new sets one probe query carries; results do not depend on it */
   batchSize?: number;
+  /**
+   * Called after each probe batch with the new sets probed so far and their number (a load's
+   * progress); may throw to stop the load, which rolls the transaction back.
+   */
+  onProgress?: (done: number, total: number) => void;
 }
 
 const WRITE_CHUNK = 20_000;
@@ -55,7 +60,8 @@ export async function addSets(
   const storeTimings = { dictionary: 0, prefixes: 0 };
   const newSets = await storeNewSets(tx, fresh, idByHash, storeTimings);
   const stored = performance.now();
-  const { pairs, candidates, timings } = await probeNewSets(tx, newSets, options.batchSize ?? 1000);
+  options.onProgress?.(0, newSets.length);
+  const { pairs, candidates, timings } = await probeNewSets(tx, newSets, options.batchSize ?? 1000, options.onProgress);
   await writePairs(tx, pairs);
   const emptyIds = await storeEmptySets(tx, sets, idByHash);
   return {
@@ -192,7 +198,7 @@ async function writePairs(tx: Transaction, pairs: StoredPair[]) {
   }
 }
 
-async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: number) {
+async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: number, onProgress?: (done: number, total: number) => void) {
   const pairs = new Map<string, StoredPair>();
   let candidates = 0;
   const timings: ProbeTimings = { hits: 0, load: 0, verify: 0 };
@@ -222,6 +228,7 @@ async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: numbe
       const b = Math.max(x.id, m.setId);
       pairs.set(`${a}:${b}`, { a, b, overlap: m.overlap, similarity: m.similarity });
     }
+    onProgress?.(end, newSets.length);
   }
   return { pairs: [...pairs.values()], candidates, timings };
 }

@@ -5,6 +5,7 @@ import { db } from '../db/connection';
 import { Organisation } from '../models/Organisation';
 import { User } from '../models/User';
 import { seedDemoRepositories } from './seedDemoRepositories';
+import { seedDemoTasks } from './seedDemoTasks';
 
 /** The invented demo organisation: a rail-freight operator with its own codebases. */
 export const DEMO_ORGANISATION_NAME = 'Brackenfold Rail Freight';
@@ -80,6 +81,7 @@ export async function seedDemo(options: { force?: boolean; log?: (line: string) 
   if (!organisation) return null;
   log(`Seeding the demo organisation "${organisation.name}" with its repositories…`);
   await seedDemoRepositories(organisation, log);
+  for (const line of await seedDemoTasks(organisation)) log(line); // refactor tasks on the loaded classes
   return organisation;
 }
 

@@ -8,11 +8,15 @@ import { invitationRoutes } from './invitations';
 import { sessionRoutes } from './session';
 import { userRoutes } from './users';
 import { cloneClassRoutes } from './clone-classes';
+import { crossClassRoutes } from './cross-classes';
+import { organisationRoutes } from './organisation';
 import { findCopiesRoutes } from './find-copies';
 import { repositoryRoutes } from './repositories';
 import { snapshotRoutes } from './snapshots';
 import { outboxRoutes } from './outbox';
 import { apiTokenRoutes } from './tokens';
+import { memberRoutes, taskRoutes } from './tasks';
+import { gitLinkRoutes } from './git-links';
 import { accountRoutes } from './account';
 
 /** Every resource's routes. Add new router files here; tests read this list. */
@@ -24,9 +28,14 @@ export const ROUTE_GROUPS: RouteGroup[] = [
   repositoryRoutes,
   snapshotRoutes,
   cloneClassRoutes,
+  crossClassRoutes,
+  organisationRoutes,
   findCopiesRoutes,
   outboxRoutes,
   apiTokenRoutes,
+  taskRoutes,
+  memberRoutes,
+  gitLinkRoutes,
   accountRoutes,
 ];
 

@@ -35,6 +35,10 @@ const VALID_BODIES: Record<string, (role: Role) => object> = {
   'POST /api/find-copies': () => ({ language: 'typescript', text: 'function weighWagon(axles: number) { return axles * 2; }' }),
   'POST /api/tokens': () => ({ name: 'Registry check', repositoryId: 2147483647 }),
   'POST /api/clone-classes/:id/waiver': () => ({ reason: 'Registry check' }),
+  'POST /api/tasks': () => ({ cloneClassId: 2147483647, assigneeId: MISSING_UUID, title: 'Registry check' }),
+  'PATCH /api/tasks/:id': () => ({ status: 'in_progress' }),
+  'POST /api/tasks/:id/comments': () => ({ body: 'Registry check' }),
+  'PUT /api/repositories/:id/git': () => ({ remoteUrl: 'https://git.brackenfold.example/freight-platform.git' }),
 };
 
 const routes = registeredRoutes();
@@ -57,6 +61,17 @@ describe('the route registry', () => {
         'PUT /api/account/notices',
       ]),
     );
+  });
+
+  it('declares the organisation-wide review routes behind the read actions every role has', () => {
+    const guards = Object.fromEntries(routes.map((r) => [`${r.method.toUpperCase()} ${r.path}`, r.guard]));
+    expect(guards).toMatchObject({
+      'GET /api/clone-classes': 'cloneClasses.read',
+      'GET /api/cross-classes/:id': 'cloneClasses.read',
+      'GET /api/organisation/loads': 'snapshots.read',
+      'GET /api/organisation/trend': 'snapshots.read',
+      'GET /api/repositories/:id/clone-map': 'snapshots.read',
+    });
   });
 
   it('keeps public routes to the ones anybody needs before signing in', () => {
