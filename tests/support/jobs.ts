@@ -60,3 +60,18 @@ export async function waitForSnapshot(
     await new Promise((resolve) => setTimeout(resolve, 100));
   }
 }
+
+/**
+ * Polls the file's queue until the `snapshot.load` job of a snapshot has ended (completed or
+ * failed): its last step, deleting the archive, comes after the snapshot's status is written.
+ */
+export async function waitForLoadJob(schema: string, snapshotId: number, timeoutMs = 120_000): Promise<string> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const [rows] = await db().query(`select state from "${schema}".job where name = 'snapshot.load' and data->>'snapshotId' = $1`, { bind: [String(snapshotId)] });
+    const state = (rows as { state: string }[])[0]?.state;
+    if (state === 'completed' || state === 'failed') return state;
+    if (Date.now() > deadline) throw new Error(`the load job of snapshot ${snapshotId} is still ${state ?? 'missing'} after ${timeoutMs} ms`);
+    await new Promise((resolve) => setTimeout(resolve, 200));
+  }
+}

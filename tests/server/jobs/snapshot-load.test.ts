@@ -13,7 +13,7 @@ import { uploadSnapshot } from '../../../server/commands/uploadSnapshot';
 import { select } from '../../../server/clone-index/sql';
 import { projectRoot } from '../../../server/config';
 import { readFolder, storedArchivePath } from '../../../server/ingest';
-import { buildRepository, describedPairs, useDatabase, useJobs, waitForSnapshot } from '../../support';
+import { buildRepository, describedPairs, useDatabase, useJobs, waitForLoadJob, waitForSnapshot } from '../../support';
 import { buildTar } from '../ingest/build-archives';
 
 useDatabase();
@@ -93,6 +93,7 @@ describe('snapshot.load in worker processes', () => {
     expect(done.loadAttempt).toBeGreaterThanOrEqual(2);
     expect(done.progress).toBeNull();
     expect(done.fileCount).toBe(files.length);
+    expect(await waitForLoadJob(jobs.schema, snapshot.id)).toBe('completed');
     expect(fs.existsSync(storedArchivePath(snapshot.id))).toBe(false);
     second.process.kill('SIGTERM');
 

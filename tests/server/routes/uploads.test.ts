@@ -13,7 +13,7 @@ import { readFolder, storedArchivePath } from '../../../server/ingest';
 import type { Repository } from '../../../server/models/Repository';
 import type { CreatedApiTokenDTO } from '../../../shared/api/tokens';
 import type { SnapshotAnswerDTO, SnapshotDTO } from '../../../shared/api/snapshots';
-import { buildRepository, buildTeam, buildUser, describedPairs, loadFolder, RELEASES, signedInAgent, useDatabase, useJobs, waitForSnapshot, type Agent } from '../../support';
+import { buildRepository, buildTeam, buildUser, describedPairs, loadFolder, RELEASES, signedInAgent, useDatabase, useJobs, waitForLoadJob, waitForSnapshot, type Agent } from '../../support';
 import { buildTar, buildZip, deflatedZeros, gzipAround, tarHeader } from '../ingest/build-archives';
 
 useDatabase();
@@ -82,6 +82,7 @@ describe('POST /api/repositories/:id/snapshots', () => {
     expect(read).toMatchObject({ status: 'ready', progress: null, error: null });
     expect(read.metrics?.classCount).toBeGreaterThan(0);
     // The archive was deleted once the load had read it.
+    expect(await waitForLoadJob(jobs.schema, snapshot.id)).toBe('completed');
     expect(fs.existsSync(storedArchivePath(snapshot.id))).toBe(false);
     expect(uploadFolderFiles()).toEqual([]);
 
@@ -104,6 +105,7 @@ describe('POST /api/repositories/:id/snapshots', () => {
     expect(other.body.error.message).toContain('"r1"');
     expect(await repositoryRows(repository)).toBe(1);
     await waitForSnapshot(first.body.snapshot.id);
+    await waitForLoadJob(jobs.schema, first.body.snapshot.id);
     expect(uploadFolderFiles()).toEqual([]);
   }, 120_000);
 
@@ -117,7 +119,7 @@ describe('POST /api/repositories/:id/snapshots', () => {
     expect(answers.map((a) => a.status).sort()).toEqual([202, 409, 409]);
     for (const a of answers.filter((a) => a.status === 409)) expect(a.body.error.field).toBe('label');
     expect(await repositoryRows(repository)).toBe(1);
-    await waitForSnapshot(answers.find((a) => a.status === 202)!.body.snapshot.id);
+    await waitForLoadJob(jobs.schema, answers.find((a) => a.status === 202)!.body.snapshot.id);
     expect(uploadFolderFiles()).toEqual([]);
   }, 120_000);
 
@@ -132,7 +134,7 @@ describe('POST /api/repositories/:id/snapshots', () => {
     const other = await request(app).post(`/api/repositories/${sibling.id}/snapshots`).set(bearer).field('label', 'ci-1').attach('archive', demoV1(), 'r.zip');
     expect(other.status).toBe(403);
     expect(await repositoryRows(sibling)).toBe(0);
-    await waitForSnapshot(own.body.snapshot.id);
+    await waitForLoadJob(jobs.schema, own.body.snapshot.id);
   }, 120_000);
 
   it('answers 400 naming the field for a missing label or archive, a JSON body, a control character or an extra file', async () => {
@@ -248,10 +250,6 @@ describe('POST /api/snapshots/:id/cancel', () => {
     return zlib.gzipSync(buildTar(files.map((f) => ({ name: `lib/${f.path}`, data: Buffer.concat([Buffer.from(f.content), Buffer.from(`\n// ${salt}\n`)]) }))));
   }
 
-  async function jobState(snapshotId: number): Promise<string | undefined> {
-    const [row] = await select<{ state: string }>(undefined, `select state from "${jobs.schema}".job where name = 'snapshot.load' and data->>'snapshotId' = $1`, [String(snapshotId)]);
-    return row?.state;
-  }
 
   it('stops a running load at its next checkpoint: cancelled, nothing of it written, the archive deleted', async () => {
     const repository = await buildRepository({ organisationId: team.organisation.id });
@@ -270,9 +268,7 @@ describe('POST /api/snapshots/:id/cancel', () => {
     expect(fs.existsSync(storedArchivePath(id))).toBe(false);
 
     // The job ends (it stopped at a checkpoint) and leaves nothing of the snapshot.
-    const deadline = Date.now() + 120_000;
-    while ((await jobState(id)) !== 'completed' && Date.now() < deadline) await new Promise((r) => setTimeout(r, 200));
-    expect(await jobState(id)).toBe('completed');
+    expect(await waitForLoadJob(jobs.schema, id)).toBe('completed');
     const [left] = await select<{ files: string; classes: string; metrics: string; status: string }>(
       undefined,
       `select (select count(*) from snapshot_files where snapshot_id = $1) as files, (select count(*) from clone_classes where snapshot_id = $1) as classes,
@@ -294,9 +290,7 @@ describe('POST /api/snapshots/:id/cancel', () => {
     expect(fs.existsSync(storedArchivePath(id))).toBe(true);
     await agents.lead.delete(`/api/repositories/${repository.id}`).expect(204);
     expect(fs.existsSync(storedArchivePath(id))).toBe(false);
-    const deadline = Date.now() + 120_000;
-    while ((await jobState(id)) !== 'completed' && Date.now() < deadline) await new Promise((r) => setTimeout(r, 200));
-    expect(await jobState(id)).toBe('completed');
+    expect(await waitForLoadJob(jobs.schema, id)).toBe('completed');
     const [left] = await select<{ files: string; snapshots: string }>(
       undefined,
       'select (select count(*) from snapshot_files where snapshot_id = $1) as files, (select count(*) from snapshots where id = $1) as snapshots',
