@@ -37,7 +37,7 @@ const clientLayers = [
 ];
 
 export default defineConfig(
-  { ignores: ['node_modules/', 'dist/', '.data/', 'test-results/', 'tests/fixtures/', 'server/demo/'] },
+  { ignores: ['node_modules/', 'dist/', '.data/', 'test-results/', 'tests/fixtures/'] },
   js.configs.recommended,
   tseslint.configs.recommended,
   {

@@ -10,7 +10,7 @@
 //   analyzer-worker.mjs  the analyzer pool threads (analyzers/worker-task.ts), named by the two
 //                        entries above through analyzers/worker-location.ts
 // Modules that find files relative to themselves (import.meta.url: the project root in
-// server/config.ts, the demo folder, tree-sitter's wasm files) keep seeing their source location:
+// server/config.ts, tree-sitter's wasm files) keep seeing their source location:
 // the bundle rewrites each module's import.meta.url to its source file, as a path relative to the
 // bundle, so a build still works when the checkout moves. Migrations are bundled by
 // server/db/migrate.ts's import pattern.
@@ -25,8 +25,8 @@ export const defaultOutdir = path.join(root, 'dist', 'server');
 
 /** What the build reads: a change in any of these makes a build stale. */
 const INPUT_DIRS = ['server', 'analyzers', 'shared'];
-/** Read at run time from their source location (or not built at all): no rebuild when they change. */
-const NOT_BUILT = new Set(['server/demo', 'server/bench']);
+/** Not built at all (benchmarks run from the sources): no rebuild when they change. */
+const NOT_BUILT = new Set(['server/bench']);
 const INPUT_FILES = ['package.json', 'package-lock.json', 'tsconfig.json', 'scripts/build.mjs'];
 const STAMP = 'build-stamp.json';
 

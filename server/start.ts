@@ -1,7 +1,6 @@
 import { build } from 'vite';
 import { firstAdminLines, firstRunStep } from './commands/firstRun';
 import { demoOrganisationExists, demoSignInLines, seedDemo } from './commands/seedDemo';
-import { seedDemoRepositories } from './commands/seedDemoRepositories';
 import { loadConfig, projectRoot } from './config';
 import { openDatabase } from './db';
 import { drainOnSignals, onShutdown, serve } from './index';
@@ -21,11 +20,7 @@ async function main() {
   // Jobs in hand finish (or are left to be retried) after the HTTP requests, within the grace period.
   onShutdown('jobs and the mail catcher', stopEmbedded);
   const step = firstRunStep(await User.count(), loadConfig().demo);
-  const seeded = step === 'seed' || step === 'force-seed' ? await seedDemo({ force: step === 'force-seed' }) : null;
-  if (seeded) {
-    console.log(`Seeding the demo organisation "${seeded.name}" with its repositories…`);
-    for (const line of await seedDemoRepositories(seeded)) console.log(line);
-  }
+  const seeded = step === 'seed' || step === 'force-seed' ? await seedDemo({ force: step === 'force-seed', log: (line) => console.log(line) }) : null;
   if (seeded || (step !== 'first-admin' && (await demoOrganisationExists()))) {
     console.log('Demo sign-ins (role, e-mail, password):');
     for (const line of demoSignInLines()) console.log(line);

@@ -4,12 +4,12 @@ import { parseArgs } from 'node:util';
 import autocannon from 'autocannon';
 import { CSRF_HEADER } from '../../shared/api/session';
 import { DEMO_SIGN_INS, seedDemo } from '../commands/seedDemo';
-import { seedDemoRepositories } from '../commands/seedDemoRepositories';
+import { generateDemo } from '../demo/generator/story';
 import { projectRoot } from '../config';
 import { connect, disconnect } from '../db/connection';
-import { stopJobs } from '../jobs';
 import { migrateUp } from '../db/migrate';
 import { createDatabaseIfMissing, dropDatabase, ensureDatabaseServer } from '../db/postgres';
+import { startJobs, stopJobs } from '../jobs';
 import { initModels } from '../models';
 
 /**
@@ -29,19 +29,15 @@ import { initModels } from '../models';
 const BENCH_DATABASE = 'doublet_bench_load';
 const WARM_UP_S = 3;
 
-/** An engineer's paste: the demo's pricing rule (server/demo/freight-platform) with its names changed. */
-const SNIPPET = `function chargeFor(cars, km, terms) {
-  let sum = 0;
-  for (const car of cars) {
-    const base = car.loadTonnes * terms.ratePerTonne + car.axles * 3;
-    const hazard = car.hazardous ? base * 0.15 : 0;
-    sum += (base + hazard) * Math.max(1, km / 100);
-  }
-  if (terms.discount > 0) {
-    sum = sum - sum * terms.discount;
-  }
-  return Math.round(sum * 100) / 100;
-}`;
+/** An engineer's paste: the demo's charge whose fix missed its copy (server/demo/generator), as its file has it. */
+function demoSnippet(): string {
+  const demo = generateDemo();
+  const { repository, label, missed } = demo.story.drifted[0];
+  const release = demo.repositories.find((r) => r.name === repository)!.releases.find((r) => r.label === label)!;
+  const text = release.files.find((f) => f.path === missed.path)!.text;
+  const start = text.indexOf(`export function ${missed.name}(`);
+  return text.slice(start, text.indexOf('\n}\n', start) + 2);
+}
 
 interface Target {
   name: string;
@@ -118,10 +114,10 @@ async function prepareDatabase(): Promise<{ url: string; admin: string }> {
   const sequelize = connect(url);
   await migrateUp(sequelize);
   initModels(sequelize);
-  const organisation = await seedDemo();
+  // loads queue their notices as `npm start` does (the server's embedded worker sends them later)
+  await startJobs({ connectionString: url });
+  const organisation = await seedDemo({ log: (line) => console.error(line) });
   if (!organisation) throw new Error('the bench database was not empty');
-  for (const line of await seedDemoRepositories(organisation)) console.error(line);
-  // The loads queued their notices in the bench database: close the queue they opened there.
   await stopJobs();
   await disconnect();
   return { url, admin };
@@ -203,10 +199,10 @@ async function main() {
     const headers = await signIn(server.base, engineer.email, engineer.password);
     type Repositories = { repositories: { id: number; name: string; latestSnapshot: { id: number } | null }[] };
     const { repositories } = await getJson<Repositories>(server.base, '/api/repositories', headers);
-    const repository = repositories.find((r) => r.name === 'freight-platform')!;
+    const repository = repositories.find((r) => r.name === 'consignment-billing')!;
     const snapshotId = repository.latestSnapshot!.id;
     const { classes } = await getJson<{ classes: { id: number }[] }>(server.base, `/api/snapshots/${snapshotId}/classes`, headers);
-    const body = JSON.stringify({ language: 'javascript', text: SNIPPET });
+    const body = JSON.stringify({ language: 'typescript', text: demoSnippet() });
     const found = await fetch(`${server.base}/api/find-copies`, { method: 'POST', headers: { ...headers, 'content-type': 'application/json' }, body });
     const { copies } = (await found.json()) as { copies: unknown[] };
     console.error(`find copies of the pasted snippet: ${copies.length} copies (status ${found.status})`);

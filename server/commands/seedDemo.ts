@@ -4,6 +4,8 @@ import { hashPassword } from '../auth/passwords';
 import { db } from '../db/connection';
 import { Organisation } from '../models/Organisation';
 import { User } from '../models/User';
+import { seedDemoRepositories } from './seedDemoRepositories';
+import { seedDemoTasks } from './seedDemoTasks';
 
 /** The invented demo organisation: a rail-freight operator with its own codebases. */
 export const DEMO_ORGANISATION_NAME = 'Brackenfold Rail Freight';
@@ -48,15 +50,14 @@ export async function createDemoOrganisation(options: { transaction?: Transactio
 }
 
 /**
- * Seeds the demo organisation when the database has no organisation at all, and returns it; on a
- * database in use it does nothing and returns null. With `force` (DOUBLET_DEMO=1) it seeds beside
- * other organisations too, unless one named like the demo is already there. Safe to call at every
- * start.
+ * Creates the demo organisation and its users when the database has no organisation at all, and
+ * returns it; on a database in use it does nothing and returns null. With `force` (DOUBLET_DEMO=1)
+ * it creates it beside other organisations too, unless one named like the demo is already there.
  *
  * @example
- * const seeded = await seedDemo(); // Organisation on a fresh database, else null
+ * const organisation = await claimDemoOrganisation(); // Organisation on a fresh database, else null
  */
-export async function seedDemo(options: { transaction?: Transaction; force?: boolean } = {}): Promise<Organisation | null> {
+export async function claimDemoOrganisation(options: { transaction?: Transaction; force?: boolean } = {}): Promise<Organisation | null> {
   const { transaction } = options;
   if (!options.force) {
     if ((await Organisation.count({ transaction })) > 0) return null;
@@ -66,6 +67,22 @@ export async function seedDemo(options: { transaction?: Transaction; force?: boo
     if ((await User.count({ where: { email: DEMO_SIGN_INS.map((s) => s.email) }, transaction })) > 0) return null;
   }
   return createDemoOrganisation({ transaction });
+}
+
+/**
+ * `npm start`'s demo: the organisation and its users (see claimDemoOrganisation), then its
+ * content, step by step in this order, each step reporting through `log`. Returns the
+ * organisation, or null when the database already has one (nothing is written then). Safe to call
+ * at every start.
+ */
+export async function seedDemo(options: { force?: boolean; log?: (line: string) => void } = {}): Promise<Organisation | null> {
+  const log = options.log ?? (() => {});
+  const organisation = await claimDemoOrganisation({ force: options.force });
+  if (!organisation) return null;
+  log(`Seeding the demo organisation "${organisation.name}" with its repositories…`);
+  await seedDemoRepositories(organisation, log);
+  for (const line of await seedDemoTasks(organisation)) log(line); // refactor tasks on the loaded classes
+  return organisation;
 }
 
 /** Whether the demo organisation is in the database (its sign-ins are worth printing then). */

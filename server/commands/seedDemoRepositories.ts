@@ -1,43 +1,55 @@
-import path from 'node:path';
-import { projectRoot } from '../config';
-import { readFolder } from '../ingest/folder';
+import os from 'node:os';
+import { AnalyzerPool } from '../../analyzers';
+import { generateDemo, type Demo } from '../demo/generator/story';
+import { User } from '../models/User';
 import type { Organisation } from '../models/Organisation';
+import type { Repository } from '../models/Repository';
+import { allSnapshotClasses } from '../queries/classes';
+import { latestReadySnapshot } from '../queries/repositories';
 import { createRepository, repositorySettings } from './createRepository';
 import { loadSnapshot } from './loadSnapshot';
-import { seedDemoTasks } from './seedDemoTasks';
-
-const DEMO = path.join(projectRoot, 'server', 'demo');
-
-/** The demo repositories: folder under server/demo, release folders and the labels they load as. */
-const DEMO_REPOSITORIES = [
-  {
-    name: 'freight-platform',
-    description: 'Consignment billing, yard planning and inspection tools.',
-    cloneBudget: 0.4,
-    releases: [['v1', '2026.09'], ['v2', '2026.10'], ['v3', '2026.11']],
-  },
-  {
-    name: 'depot-tools',
-    description: 'Scripts the maintenance depot runs on its own.',
-    cloneBudget: null,
-    releases: [['2026.11', '2026.11']],
-  },
-] as const;
+import { waiveLineage } from './waivers';
 
 /**
- * Loads the invented demo repositories into the demo organisation, release after release, so a
- * first start shows classes, a trend, a drifted class and a match across repositories.
+ * Loads the generated demo repositories (server/demo/generator: the same code on every run) into
+ * the organisation, release after release in the order of their dates, and waives what the story
+ * waives, in the name of the organisation's first lead. Loads run here, in process and one after
+ * another (in one pool of analyzer threads), so a first start is deterministic. Reports each load
+ * through `log`.
  */
-export async function seedDemoRepositories(organisation: Organisation): Promise<string[]> {
-  const lines: string[] = [];
-  for (const demo of DEMO_REPOSITORIES) {
-    const repository = await createRepository(organisation.id, { name: demo.name, description: demo.description, cloneBudget: demo.cloneBudget });
-    for (const [folder, label] of demo.releases) {
-      const { files, skipped } = await readFolder(path.join(DEMO, demo.name, folder), { ignore: repository.ignore });
-      const result = await loadSnapshot({ repository: repositorySettings(repository), label, files, skipped, source: 'folder' });
-      lines.push(`  ${demo.name}@${label}: ${result.fragmentCount} fragments, ${result.classCount} clone classes`);
+export async function seedDemoRepositories(organisation: Organisation, log: (line: string) => void = () => {}, demo: Demo = generateDemo()): Promise<void> {
+  const lead = await User.findOne({ where: { organisationId: organisation.id, role: 'lead' }, order: [['createdAt', 'ASC']] });
+  if (!lead) throw new Error('The demo organisation needs a lead: the demo waives a clone class in a lead’s name.');
+  const repositories = new Map<string, Repository>();
+  for (const r of demo.repositories) {
+    repositories.set(r.name, await createRepository(organisation.id, { name: r.name, description: r.description, cloneBudget: r.cloneBudget }));
+  }
+  // one pool for the fifty loads: its threads start once, not once a load
+  const pool = new AnalyzerPool(os.availableParallelism());
+  try {
+    await runSteps(demo, repositories, lead, pool, log);
+  } finally {
+    await pool.close();
+  }
+}
+
+async function runSteps(demo: Demo, repositories: Map<string, Repository>, lead: User, pool: AnalyzerPool, log: (line: string) => void): Promise<void> {
+  for (const step of demo.steps) {
+    if ('load' in step) {
+      const repository = repositories.get(step.load.repository)!;
+      const release = demo.repositories.find((r) => r.name === step.load.repository)!.releases.find((r) => r.label === step.load.label)!;
+      const files = release.files.map((f) => ({ path: f.path, content: Buffer.from(f.text, 'utf8') }));
+      const result = await loadSnapshot({ repository: repositorySettings(repository), label: release.label, files, source: 'folder' }, { pool });
+      log(`  ${repository.name}@${release.label}: ${result.fragmentCount} fragments, ${result.classCount} clone classes, clone ratio ${(result.cloneRatio * 100).toFixed(1)} %`);
+    } else {
+      const { repository: name, paths, reason } = step.waive;
+      const repository = repositories.get(name)!;
+      const latest = await latestReadySnapshot(repository.id);
+      if (!latest) throw new Error(`The demo waives a class of ${name} before any release of it is loaded.`);
+      // every class between the two files the story names, and nothing else
+      const waived = (await allSnapshotClasses(latest.id)).filter((c) => c.paths.length === paths.length && c.paths.every((p) => paths.includes(p)));
+      for (const c of waived) await waiveLineage({ lineageId: c.lineageId, repositoryId: repository.id }, { reason, untilLabel: null, createdBy: lead.id });
+      log(`  ${name}: ${waived.length} clone ${waived.length === 1 ? 'class' : 'classes'} waived by ${lead.name}`);
     }
   }
-  lines.push(...(await seedDemoTasks(organisation))); // two refactor tasks on the loaded classes (commands/seedDemoTasks.ts)
-  return lines;
 }

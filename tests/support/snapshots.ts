@@ -9,8 +9,8 @@ import { parseThreshold } from '../../server/matching/threshold';
 import type { Repository } from '../../server/models/Repository';
 import { buildOrganisation } from './factories';
 
-/** Folder of the invented demo releases (v1, v2, v3 of a rail-freight codebase). */
-export const RELEASES = path.resolve(import.meta.dirname, '../../server/demo/freight-platform');
+/** Folder of small invented releases (v1, v2, v3 of a rail-freight codebase) with a few planted copies, for tests. */
+export const RELEASES = path.resolve(import.meta.dirname, '../fixtures/releases/freight-platform');
 
 /** A repository in a new organisation (or the one given), with a unique name. */
 export async function buildRepository(input: UpdateRepositoryInput & { organisationId?: string } = {}): Promise<Repository> {

@@ -1,5 +1,5 @@
 /**
- * A copy of the demo's pricing rule (server/demo/freight-platform, billing/tariff.js) with every
+ * A copy of the fixture releases' pricing rule (tests/fixtures/releases/freight-platform, billing/tariff.js) with every
  * name changed, as an engineer who found a bug in it would paste it into find copies.
  */
 export const PASTED_PRICING_RULE = `function costOfTrain(units, km, deal) {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { verifyPassword } from '../../../server/auth/passwords';
-import { DEMO_ORGANISATION_NAME, DEMO_SIGN_INS, createDemoOrganisation, seedDemo } from '../../../server/commands/seedDemo';
+import { DEMO_ORGANISATION_NAME, DEMO_SIGN_INS, claimDemoOrganisation, createDemoOrganisation, seedDemo } from '../../../server/commands/seedDemo';
 import { db } from '../../../server/db/connection';
 import { User } from '../../../server/models/User';
 import { ROLES } from '../../../shared/roles';
@@ -11,7 +11,10 @@ useDatabase();
 describe('seedDemo', () => {
   it('does nothing on a database that already has an organisation', async () => {
     await buildOrganisation();
-    expect(await seedDemo()).toBeNull();
+    const lines: string[] = [];
+    expect(await seedDemo({ log: (line) => lines.push(line) })).toBeNull();
+    expect(await claimDemoOrganisation()).toBeNull();
+    expect(lines).toEqual([]);
   });
 
   it('creates the demo organisation with one user per role whose demo passwords work', async () => {
@@ -37,11 +40,11 @@ describe('seedDemo', () => {
     // Rolled back like the test above; no other test file commits the demo organisation.
     const transaction = await db().transaction();
     try {
-      expect(await seedDemo({ transaction })).toBeNull();
-      const seeded = await seedDemo({ force: true, transaction });
+      expect(await claimDemoOrganisation({ transaction })).toBeNull();
+      const seeded = await claimDemoOrganisation({ force: true, transaction });
       expect(seeded?.name).toBe(DEMO_ORGANISATION_NAME);
       expect(await User.count({ where: { organisationId: seeded!.id }, transaction })).toBe(DEMO_SIGN_INS.length);
-      expect(await seedDemo({ force: true, transaction })).toBeNull();
+      expect(await claimDemoOrganisation({ force: true, transaction })).toBeNull();
     } finally {
       await transaction.rollback();
     }
