@@ -6,6 +6,9 @@ import { createHash } from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import { prefixLength, type Threshold } from '../matching/threshold';
 import { resolveShingles, toRankArray } from './dictionary';
+import type { GrowingIndexMatch } from '../matching/growing-index';
+import { jaccard } from '../matching/similarity';
+import { useMirror, type MirrorSession, type MirrorUse } from './mirror';
 import { indexThreshold } from './options';
 import { probeSets, type ProbeTimings } from './probe';
 import { chunks, execute, intArrayLiteral, lockIndex, select } from './sql';
@@ -23,14 +26,28 @@ export interface AddSetsResult {
   newSetCount: number;
   newPairCount: number;
   candidates: number;
-  /** milliseconds; probe = hits + load + verify + pair writes; store = dictionary + sets + prefix entries */
-  timings: { store: number; probe: number; hits: number; load: number; verify: number; dictionary: number; prefixes: number };
+  /**
+   * Milliseconds. store = dictionary + sets + prefix entries; probe = the probe + pair writes: in
+   * memory (mirror: bringing the mirror up to date, memory: probing and verifying there), or
+   * through PostgreSQL (hits: the hit queries, load: reading candidate sets, verify).
+   */
+  timings: { store: number; probe: number; mirror: number; memory: number; hits: number; load: number; verify: number; dictionary: number; prefixes: number };
+  /** where the new sets were probed, and why not in memory when they were not */
+  probedIn: 'memory' | 'database';
+  probeReason?: string;
 }
 
 /** Options of addSets. */
 export interface AddSetsOptions {
-  /** how many new sets one probe query carries; results do not depend on it */
+  /** how many new sets one probe query carries (through PostgreSQL); results do not depend on it */
   batchSize?: number;
+  /**
+   * Where new sets are probed: 'auto' (default) in the process's mirror of the index when it is up
+   * to date or cheap to bring up to date, else through PostgreSQL; 'memory' always in the mirror
+   * (unless it is off or over its memory limit); 'database' always through PostgreSQL. Results do
+   * not depend on it.
+   */
+  probe?: 'auto' | 'memory' | 'database';
 }
 
 const WRITE_CHUNK = 20_000;
@@ -52,10 +69,16 @@ export async function addSets(
   const fresh = new Map<string, string[]>();
   for (const s of sets) if (!idByHash.has(s.hash) && s.shingles.length > 0) fresh.set(s.hash, s.shingles);
 
+  const mark = performance.now();
+  const use: MirrorUse =
+    options.probe === 'database' || fresh.size === 0 ? { mirror: undefined, reason: options.probe === 'database' ? 'asked' : 'nothing new' } : await useMirror(tx, fresh.size, options.probe ?? 'auto');
+  const mirrorMs = performance.now() - mark;
+
   const storeTimings = { dictionary: 0, prefixes: 0 };
   const newSets = await storeNewSets(tx, fresh, idByHash, storeTimings);
   const stored = performance.now();
-  const { pairs, candidates, timings } = await probeNewSets(tx, newSets, options.batchSize ?? 1000);
+  const probed = use.mirror ? probeInMemory(use.mirror, newSets) : await probeNewSets(tx, newSets, options.batchSize ?? 1000);
+  const { pairs, candidates, timings } = probed;
   await writePairs(tx, pairs);
   const emptyIds = await storeEmptySets(tx, sets, idByHash);
   return {
@@ -63,7 +86,9 @@ export async function addSets(
     newSetCount: newSets.length,
     newPairCount: pairs.length,
     candidates,
-    timings: { store: stored - started, probe: performance.now() - stored, ...timings, ...storeTimings },
+    timings: { store: stored - started - mirrorMs, probe: performance.now() - stored + mirrorMs, mirror: mirrorMs, ...timings, ...storeTimings },
+    probedIn: use.mirror ? 'memory' : 'database',
+    probeReason: use.mirror ? undefined : use.reason,
   };
 }
 
@@ -192,10 +217,32 @@ async function writePairs(tx: Transaction, pairs: StoredPair[]) {
   }
 }
 
+/**
+ * Probes the new sets in the mirror: appended in id order, each is probed against every set with
+ * a smaller id (old ones, and new ones before it), so each pair is found once.
+ */
+function probeInMemory(mirror: MirrorSession, newSets: NewSet[]) {
+  const started = performance.now();
+  const sets = [...newSets].sort((a, b) => a.id - b.id);
+  const first = mirror.appendPending(sets);
+  const pairs: StoredPair[] = [];
+  const matches: GrowingIndexMatch[] = [];
+  let candidates = 0;
+  sets.forEach((x, k) => {
+    matches.length = 0;
+    candidates += mirror.index.probe(x.ranks, indexThreshold, first + k, matches);
+    for (const m of matches) {
+      const size = mirror.index.set(m.set).length;
+      pairs.push({ a: mirror.setId(m.set), b: x.id, overlap: m.overlap, similarity: jaccard(m.overlap, x.ranks.length, size) });
+    }
+  });
+  return { pairs, candidates, timings: { memory: performance.now() - started, hits: 0, load: 0, verify: 0 } };
+}
+
 async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: number) {
   const pairs = new Map<string, StoredPair>();
   let candidates = 0;
-  const timings: ProbeTimings = { hits: 0, load: 0, verify: 0 };
+  const timings: ProbeTimings & { memory: number } = { memory: 0, hits: 0, load: 0, verify: 0 };
   // The filter is symmetric, so a pair of two new sets is found by both: only the probe with the
   // larger id keeps it, which halves the verification work among new sets.
   const isNew = new Set(newSets.map((s) => s.id));
