@@ -1,5 +1,5 @@
 import type { Transaction } from 'sequelize';
-import { chunks, execute, select } from './sql';
+import { chunks, copyRows, select } from './sql';
 
 const LOOKUP_CHUNK = 50_000;
 
@@ -19,12 +19,10 @@ export async function resolveShingles(
   // most frequent first, so it gets the highest of the new ranks; ties by text for determinism
   unknown.sort((a, b) => counts.get(b)! - counts.get(a)! || (a < b ? -1 : a > b ? 1 : 0));
   const newRanks = await ranksBelowKnown(tx, unknown.length);
-  for (const [start, end] of chunks(unknown.length, LOOKUP_CHUNK)) {
-    await execute(tx, 'insert into shingles (text, rank) select * from unnest($1::text[], $2::int[])', [
-      unknown.slice(start, end),
-      newRanks.slice(start, end),
-    ]);
-  }
+  await copyRows(tx, 'shingles', ['text', 'rank'], [
+    { type: 'text', values: unknown },
+    { type: 'int4', values: newRanks },
+  ]);
   unknown.forEach((s, i) => ranks.set(s, newRanks[i]));
   return ranks;
 }

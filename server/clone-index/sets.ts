@@ -11,7 +11,7 @@ import { jaccard } from '../matching/similarity';
 import { useMirror, type MirrorSession, type MirrorUse } from './mirror';
 import { indexThreshold } from './options';
 import { probeSets, type ProbeTimings } from './probe';
-import { chunks, execute, intArrayLiteral, lockIndex, select } from './sql';
+import { chunks, copyRows, execute, lockIndex, select } from './sql';
 
 /** Content address of a shingle set: sha-1 of its sorted shingles (unambiguous: JSON). */
 export function setHash(shingles: string[]): string {
@@ -130,7 +130,8 @@ async function storeNewSets(
   fresh: Map<string, string[]>,
   idByHash: Map<string, number>,
   timings: { dictionary: number; prefixes: number },
-) {
+): Promise<NewSet[]> {
+  if (fresh.size === 0) return [];
   let mark = performance.now();
   const documentFrequency = new Map<string, number>();
   for (const shingles of fresh.values()) {
@@ -140,25 +141,21 @@ async function storeNewSets(
   timings.dictionary += performance.now() - mark;
   const hashes = [...fresh.keys()];
   const rankArrays = hashes.map((h) => toRankArray(fresh.get(h)!, ranks));
-  const newSets: NewSet[] = [];
-  for (const [start, end] of chunks(hashes.length, WRITE_CHUNK)) {
-    const rows = await select<{ id: number; hash: string }>(
-      tx,
-      `insert into shingle_sets (hash, size, ranks)
-       select h, s, r::int[] from unnest($1::text[], $2::int[], $3::text[]) as t(h, s, r)
-       returning id, hash`,
-      [
-        hashes.slice(start, end),
-        rankArrays.slice(start, end).map((r) => r.length),
-        rankArrays.slice(start, end).map(intArrayLiteral),
-      ],
-    );
-    const position = new Map(hashes.slice(start, end).map((h, i) => [h, start + i]));
-    for (const row of rows) {
-      idByHash.set(row.hash, row.id);
-      newSets.push({ id: row.id, ranks: rankArrays[position.get(row.hash)!] });
-    }
-  }
+  // Ids drawn as one block, then the rows go in by COPY (which cannot return them). Only loads
+  // holding the index write lock insert sets, so nothing else draws from the sequence meanwhile.
+  const [{ first }] = await select<{ first: number }>(
+    tx,
+    `select (setval(pg_get_serial_sequence('shingle_sets', 'id'), nextval(pg_get_serial_sequence('shingle_sets', 'id')) + $1 - 1) - $1 + 1)::int as first`,
+    [hashes.length],
+  );
+  const newSets: NewSet[] = hashes.map((hash, i) => ({ id: first + i, ranks: rankArrays[i] }));
+  hashes.forEach((hash, i) => idByHash.set(hash, first + i));
+  await copyRows(tx, 'shingle_sets', ['id', 'hash', 'size', 'ranks'], [
+    { type: 'int4', values: newSets.map((s) => s.id) },
+    { type: 'text', values: hashes },
+    { type: 'int4', values: rankArrays.map((r) => r.length) },
+    { type: 'int4[]', values: rankArrays },
+  ]);
   mark = performance.now();
   await writePrefixEntries(tx, newSets, indexThreshold);
   timings.prefixes += performance.now() - mark;
@@ -167,35 +164,28 @@ async function storeNewSets(
 
 /** Writes the probing prefix of each set at threshold t (the shorter indexing prefix would be wrong: sets arrive in any size order). */
 async function writePrefixEntries(tx: Transaction, sets: NewSet[], t: Threshold) {
-  let rank: number[] = [];
-  let setId: number[] = [];
-  let position: number[] = [];
-  let size: number[] = [];
-  const flush = async () => {
-    if (rank.length === 0) return;
-    await execute(
-      tx,
-      // in index order: each page of the (rank, size) index is then touched once per flush, not once per row
-      `insert into prefix_entries (rank, set_id, position, size)
-       select * from unnest($1::int[], $2::int[], $3::int[], $4::int[]) as e(rank, set_id, position, size) order by rank, size`,
-      [rank, setId, position, size],
-    );
-    rank = [];
-    setId = [];
-    position = [];
-    size = [];
-  };
+  let total = 0;
+  for (const s of sets) total += prefixLength(t, s.ranks.length);
+  const rank = new Int32Array(total);
+  const setId = new Int32Array(total);
+  const position = new Int32Array(total);
+  const size = new Int32Array(total);
+  let k = 0;
   for (const s of sets) {
     const length = prefixLength(t, s.ranks.length);
-    for (let i = 0; i < length; i++) {
-      rank.push(s.ranks[i]);
-      setId.push(s.id);
-      position.push(i);
-      size.push(s.ranks.length);
+    for (let i = 0; i < length; i++, k++) {
+      rank[k] = s.ranks[i];
+      setId[k] = s.id;
+      position[k] = i;
+      size[k] = s.ranks.length;
     }
-    if (rank.length >= 200_000) await flush();
   }
-  await flush();
+  await copyRows(tx, 'prefix_entries', ['rank', 'set_id', 'position', 'size'], [
+    { type: 'int4', values: rank },
+    { type: 'int4', values: setId },
+    { type: 'int4', values: position },
+    { type: 'int4', values: size },
+  ]);
 }
 
 interface StoredPair {
