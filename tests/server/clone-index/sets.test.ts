@@ -122,6 +122,18 @@ describe('addSets', () => {
     );
   });
 
+  it('looks up the shingles of a large load in bulk and ranks the known ones as stored', async () => {
+    // over 2,000 distinct shingles a load: the dictionary lookup goes through a temporary table
+    const next = (() => {
+      let seed = 7;
+      return () => (seed = (seed * 48271) % 2147483647) / 2147483647;
+    })();
+    const sets: Logical = Array.from({ length: 400 }, () => [...new Set(Array.from({ length: 20 }, () => Math.floor(next() * 5000)))]);
+    for (let i = 0; i < 100; i++) sets.push([...sets[i].slice(1), 5000 + i]);
+    const ids = await load(sets, ns(), 1000, 250);
+    expect(await indexedPairs(ids, sets.map((s) => s.length), 0.6)).toEqual(brutePairs(sets, 0.6));
+  });
+
   describe('the mirror of the index', () => {
     const near = (from: number): Logical => [
       Array.from({ length: 10 }, (_, i) => from + i),
