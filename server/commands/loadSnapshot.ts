@@ -121,7 +121,6 @@ async function loadInto(tx: Transaction, snapshotId: number, input: LoadSnapshot
   const indexed = await addSets(tx, fragmentSets, { batchSize: input.batchSize });
   timings.index_store = Math.round(indexed.timings.store);
   timings.index_probe = Math.round(indexed.timings.probe);
-  if (process.env.SPEED_DEBUG) console.error(JSON.stringify({ ...indexed.timings, candidates: indexed.candidates, pairs: indexed.newPairCount }));
   await storeAnalyses(tx, key, fresh, indexed.setIds, analysisIds);
   lap('index');
 
