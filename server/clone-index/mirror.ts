@@ -112,12 +112,13 @@ export async function useMirror(tx: Transaction, newSets: number, mode: 'auto' |
       setId: (n) => session.ids[n],
       appendPending(sets) {
         session.pushIds(sets.map((s) => s.id));
-        const first = session.index.append(sets.map((s) => s.ranks));
+        const first = session.index.append(sets.map((s) => s.ranks), false);
         const maxId = sets.length > 0 ? sets[sets.length - 1].id : session.maxId;
         tx.afterCommit(() => {
           if (session.generation !== generation || session.index.size !== first + sets.length) return;
           session.committed = session.index.size;
           session.maxId = Math.max(session.maxId, maxId);
+          session.index.compact();
         });
         return first;
       },

@@ -10,6 +10,7 @@
  * the older is not more than twice the size of the newer: there are about log₂(sets / batch)
  * segments, and each set is rebuilt about as many times over the life of the index.
  */
+import { overlapBound, SIGNATURE_WORDS, writeSignature } from './bitmap';
 import { minOverlap, prefixLength, reaches, sizeBounds, type Threshold } from './threshold';
 
 /** One segment: the prefix lists of sets [from, to). */
@@ -37,6 +38,9 @@ export interface GrowingIndexMatch {
 export class GrowingIndex {
   private data = new Int32Array(1 << 12);
   private starts = new Int32Array(1 << 8);
+  /** each set's bitmap signature (bitmap.ts): a candidate whose bound misses α is dropped at its first hit */
+  private signatures = new Int32Array(this.starts.length * SIGNATURE_WORDS);
+  private readonly probeSignature = new Int32Array(SIGNATURE_WORDS);
   private used = 0;
   private sets = 0;
   private segments: Segment[] = [];
@@ -76,20 +80,25 @@ export class GrowingIndex {
     return this.data.subarray(this.starts[n], this.starts[n + 1]);
   }
 
-  /** Appends sets (each sorted ascending) and returns the number of the first. */
-  append(sets: readonly Int32Array[]): number {
+  /**
+   * Appends sets (each sorted ascending) and returns the number of the first. With `merge` false
+   * their segment stays apart until compact(): sets that may yet be truncated (a transaction not
+   * committed yet) then never cause a merge with older segments, nor a rebuild when truncated.
+   */
+  append(sets: readonly Int32Array[], merge = true): number {
     const first = this.sets;
     let ids = 0;
     for (const s of sets) ids += s.length;
     this.reserve(this.used + ids, this.sets + sets.length);
     for (const s of sets) {
       this.data.set(s, this.used);
+      writeSignature(this.data, this.used, this.used + s.length, this.signatures, this.sets * SIGNATURE_WORDS);
       this.used += s.length;
       this.starts[++this.sets] = this.used;
     }
     const segment = this.buildSegment(first, this.sets);
     if (segment) this.segments.push(segment);
-    this.mergeTail();
+    if (merge) this.compact();
     return first;
   }
 
@@ -112,7 +121,7 @@ export class GrowingIndex {
   /**
    * Every set numbered below `limit` whose similarity to x reaches t (t at or above the prefix
    * threshold), with the exact overlap. The filters are the in-memory join's: length, prefix,
-   * and position on every hit; then a merge that resumes after the last hit and stops as soon as
+   * the bitmap bound at a candidate's first hit, and position on every hit; then a merge that resumes after the last hit and stops as soon as
    * the overlap can no longer reach α.
    */
   probe(x: Int32Array, t: Threshold, limit: number, matches: GrowingIndexMatch[]): number {
@@ -120,7 +129,8 @@ export class GrowingIndex {
     if (sizeX === 0) return 0;
     const [lower, upper] = sizeBounds(t, sizeX);
     const keys = Math.min(prefixLength(t, sizeX), sizeX - minOverlap(t, sizeX, lower) + 1);
-    const { count, lastX, lastY, touched, segments } = this;
+    const { count, lastX, lastY, touched, segments, signatures, probeSignature } = this;
+    writeSignature(x, 0, sizeX, probeSignature, 0);
     let touchedCount = 0;
     for (let i = 0; i < keys; i++) {
       // On a first shared rank at position i the overlap is at most sizeX − i, which reaches
@@ -142,7 +152,13 @@ export class GrowingIndex {
           if (y >= limit) continue;
           const c = count[y];
           if (c < 0) continue;
-          if (c === 0) touched[touchedCount++] = y;
+          if (c === 0) {
+            touched[touchedCount++] = y;
+            if (overlapBound(probeSignature, 0, sizeX, signatures, y * SIGNATURE_WORDS, sizeY) < minOverlap(t, sizeX, sizeY)) {
+              count[y] = -1;
+              continue;
+            }
+          }
           const j = entries[3 * e + POSITION];
           const restX = sizeX - i - 1;
           const restY = sizeY - j - 1;
@@ -181,6 +197,9 @@ export class GrowingIndex {
       const grown = new Int32Array(capacity);
       grown.set(this.starts.subarray(0, this.sets + 1));
       this.starts = grown;
+      const signatures = new Int32Array(capacity * SIGNATURE_WORDS);
+      signatures.set(this.signatures.subarray(0, this.sets * SIGNATURE_WORDS));
+      this.signatures = signatures;
       this.count = new Int32Array(capacity);
       this.lastX = new Int32Array(capacity);
       this.lastY = new Int32Array(capacity);
@@ -189,7 +208,7 @@ export class GrowingIndex {
   }
 
   /** Merges the newest segments while the older of the last two is at most twice the newer. */
-  private mergeTail() {
+  compact(): void {
     const segs = this.segments;
     while (segs.length >= 2) {
       const newer = segs[segs.length - 1];
