@@ -5,6 +5,7 @@ import { readFolder } from '../ingest/folder';
 import { createRepository, repositorySettings, updateRepository } from '../commands/createRepository';
 import { loadSnapshot } from '../commands/loadSnapshot';
 import { disconnect } from '../db';
+import { stopJobs } from '../jobs';
 import { HttpError } from '../errors';
 import { findRepositoryByName } from '../queries/repositories';
 import { guarded, InputError, positiveIntegerOption, processIo, UsageError, type CommandIo } from './command';
@@ -89,6 +90,8 @@ export function run(args: string[], io: CommandIo = processIo()): Promise<number
       );
       return 0;
     } finally {
+      // A load over budget or with drifted classes queued its notices: close the queue it opened.
+      await stopJobs();
       await disconnect();
     }
   });

@@ -9,6 +9,7 @@ import { insertSnapshotMetrics, previousReadySnapshot } from '../queries/snapsho
 import { activeWaivers, endWaivers } from '../queries/waivers';
 import { storeClasses } from '../queries/write-classes';
 import { classStats } from '../reports/class-stats';
+import { endWaiversReachingRelease } from './waivers';
 
 /** What deriving a snapshot's clones found. */
 export interface DerivedClones {
@@ -41,6 +42,7 @@ export async function deriveClones(tx: Transaction, snapshotId: number, reposito
     classes.map((members) => members.map((i) => fragmentKey(mine[i]))),
   );
 
+  await endWaiversReachingRelease(tx, snapshotId, repository.id);
   const waived = await settleWaivers(tx, snapshotId, fragments, mine, classes, lineages, previous);
   const unwaived = clonedTokens(
     fragments.map((x) => ({ file: x.snapshotFileId, tokenStart: x.tokenStart, tokenEnd: x.tokenEnd })),

@@ -20,8 +20,9 @@ export function invitationLink(token: string): string {
 
 /**
  * Invites someone to the actor's organisation: stores the invitation (only the token's hash),
- * retires earlier pending invitations to the same address, and mails the one-time link. The mail
- * goes out after the write commits, so a failed write never sends a link that does not work.
+ * retires earlier pending invitations to the same address, and mails the one-time link. The mail's
+ * job is queued in the same transaction (the caller's, when given): a rolled-back invitation never
+ * sends a link that does not work, and a committed one always sends its mail.
  *
  * An address that already has an account in another organisation gets the same answer as any
  * other (the admin must not learn who has an account elsewhere): the invitation is stored and
@@ -63,26 +64,26 @@ export async function inviteUser(input: {
       { transaction },
     );
     const organisation = await Organisation.findByPk(actor.organisationId, { transaction, rejectOnEmpty: true });
-    return { invitation, organisation, hasAccountElsewhere: existing !== null };
+    // Queued in the same transaction: a rolled-back invitation sends nothing, a committed one always sends.
+    await sendMail(
+      {
+        organisationId: invitation.organisationId,
+        ...invitationMail({
+          to: invitation.email,
+          inviteeName: invitation.name,
+          inviterName: actor.name,
+          organisationName: organisation.name,
+          roleLabel: ROLE_LABELS[invitation.role],
+          link: invitationLink(token),
+          expiresAt: invitation.expiresAt,
+          hasAccountElsewhere: existing !== null,
+          signInLink: `${loadConfig().publicUrl.replace(/\/$/, '')}/sign-in`,
+        }),
+      },
+      { transaction },
+    );
+    return invitation;
   };
 
-  const { invitation, organisation, hasAccountElsewhere } = input.transaction
-    ? await write(input.transaction)
-    : await db().transaction(write);
-
-  await sendMail({
-    organisationId: invitation.organisationId,
-    ...invitationMail({
-      to: invitation.email,
-      inviteeName: invitation.name,
-      inviterName: actor.name,
-      organisationName: organisation.name,
-      roleLabel: ROLE_LABELS[invitation.role],
-      link: invitationLink(token),
-      expiresAt: invitation.expiresAt,
-      hasAccountElsewhere,
-      signInLink: `${loadConfig().publicUrl.replace(/\/$/, '')}/sign-in`,
-    }),
-  });
-  return invitation;
+  return input.transaction ? write(input.transaction) : db().transaction(write);
 }

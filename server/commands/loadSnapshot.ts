@@ -9,6 +9,7 @@ import { ConflictError } from '../errors';
 import type { SnapshotSettings } from '../models/Snapshot';
 import { analysisOutcomes, findAnalyses, storeAnalyses, storeContents, storeSnapshotFiles, type SnapshotFileRow } from '../queries/files';
 import { findSnapshotByLabel, insertRunningSnapshot, markSnapshotFailed, markSnapshotReady } from '../queries/snapshots';
+import { queueLoadNotices } from '../mail/load-notices';
 import { deriveClones } from './deriveClones';
 
 /** What to load: a repository's files at one release. */
@@ -148,5 +149,6 @@ async function loadInto(tx: Transaction, snapshotId: number, input: LoadSnapshot
     newSetCount: indexed.newSetCount,
   };
   await markSnapshotReady(tx, snapshotId, { ...counts, cloneRatio: derived.cloneRatio, timings });
+  await queueLoadNotices(tx, snapshotId);
   return { snapshotId, ...counts, pairCount: derived.pairCount, classCount: derived.classCount, cloneRatio: derived.cloneRatio, timings };
 }

@@ -1,4 +1,5 @@
 import type { JobDefinition } from './definition';
+import { loadNoticesJob } from './load-notices';
 import { mailSendJob } from './mail-send';
 
 /**
@@ -7,6 +8,7 @@ import { mailSendJob } from './mail-send';
  */
 export const JOBS = {
   'mail.send': mailSendJob,
+  'load.notices': loadNoticesJob,
 } as const;
 
 /** A queue name of a registered job. */

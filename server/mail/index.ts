@@ -8,3 +8,5 @@ export { deliver, mailTarget, newMessageId, setMailTarget, ORGANISATION_HEADER, 
 export { startMailCatcher, CATCHER_MAX_BYTES, CATCHER_MAX_RECIPIENTS, type MailCatcher } from './catcher';
 export { storeReceivedMail, OUTBOX_LIMIT } from './store';
 export { invitationMail } from './templates';
+export { taskAssignedNotice, taskAutoChangedNotice, type TaskNoticeFacts } from './task-notices';
+export { sendNotice, noticeSettingsLink, NOTICE_KINDS, type Notice, type NoticeContent, type NoticeKind, type NoticeRecipient } from './notices';

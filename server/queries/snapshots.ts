@@ -110,3 +110,9 @@ export function insertSnapshotMetrics(tx: Transaction, snapshotId: number, m: Sn
       m.crossPairCount, m.newClassCount, m.driftedClassCount, m.goneClassCount, m.unwaivedClonedTokens],
   );
 }
+
+/** A snapshot's release label (inside its load's transaction too), or undefined. */
+export async function snapshotLabel(tx: Transaction | undefined, snapshotId: number): Promise<string | undefined> {
+  const [row] = await select<{ label: string }>(tx, 'select label from snapshots where id = $1', [snapshotId]);
+  return row?.label;
+}

@@ -103,3 +103,14 @@ export function unwaivedMemberSpans(tx: Transaction | undefined, snapshotId: num
 export function updateUnwaivedTokens(tx: Transaction | undefined, snapshotId: number, tokens: number): Promise<void> {
   return execute(tx, 'update snapshot_metrics set unwaived_cloned_tokens = $2 where snapshot_id = $1', [snapshotId, tokens]);
 }
+
+/** The active waivers of a repository's lineages that run "until release …", with that label. */
+export function activeWaiversUntilRelease(tx: Transaction | undefined, repositoryId: number): Promise<{ lineageId: number; untilLabel: string }[]> {
+  return select(
+    tx,
+    `select w.lineage_id as "lineageId", w.until_label as "untilLabel"
+       from waivers w join class_lineages l on l.id = w.lineage_id
+      where l.repository_id = $1 and w.ended_at is null and w.until_label is not null`,
+    [repositoryId],
+  );
+}

@@ -13,6 +13,7 @@ import { repositoryRoutes } from './repositories';
 import { snapshotRoutes } from './snapshots';
 import { outboxRoutes } from './outbox';
 import { apiTokenRoutes } from './tokens';
+import { accountRoutes } from './account';
 
 /** Every resource's routes. Add new router files here; tests read this list. */
 export const ROUTE_GROUPS: RouteGroup[] = [
@@ -26,6 +27,7 @@ export const ROUTE_GROUPS: RouteGroup[] = [
   findCopiesRoutes,
   outboxRoutes,
   apiTokenRoutes,
+  accountRoutes,
 ];
 
 /** Every declared API route with its full path and guard (what the route × role tests enumerate). */

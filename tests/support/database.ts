@@ -1,5 +1,6 @@
 import { afterAll, beforeAll } from 'vitest';
 import { connect, disconnect } from '../../server/db/connection';
+import { stopJobs } from '../../server/jobs';
 import { initModels } from '../../server/models';
 
 /**
@@ -14,6 +15,8 @@ export function useDatabase(): void {
     initModels(connect(url));
   });
   afterAll(async () => {
+    // A load with notices to send opens the job queue (sending only); close it with the file.
+    await stopJobs({ timeoutMs: 1000 });
     await disconnect();
   });
 }

@@ -53,6 +53,8 @@ describe('the route registry', () => {
         'POST /api/users/:id/deactivate',
         'GET /api/invitations',
         'POST /api/invitations',
+        'GET /api/account/notices',
+        'PUT /api/account/notices',
       ]),
     );
   });

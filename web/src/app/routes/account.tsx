@@ -3,8 +3,9 @@ import { Panel } from '@/components/panel';
 import { RoleBadge } from '@/components/role-badge';
 import { useSession } from '@/features/auth/api/get-session';
 import { ChangePasswordForm } from '@/features/auth/components/change-password-form';
+import { NoticePreferencesForm } from '@/features/notices/components/notice-preferences-form';
 
-/** /account: who you are, and your password. */
+/** /account: who you are, your password, and which notice mails you receive. */
 export function AccountRoute() {
   const user = useSession().data?.user;
   if (!user) return null;
@@ -20,6 +21,11 @@ export function AccountRoute() {
       <Panel title="Change password">
         <ChangePasswordForm />
       </Panel>
+      <div id="notices">
+        <Panel title="Notice mails">
+          <NoticePreferencesForm />
+        </Panel>
+      </div>
     </div>
   );
 }

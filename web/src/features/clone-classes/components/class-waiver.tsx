@@ -60,7 +60,13 @@ export function ClassWaiver({ detail, mayWaive }: { detail: CloneClassDetailDTO;
       {!w && open ? (
         <form onSubmit={submit} aria-label="Waive this clone class" className="max-w-xl space-y-2">
           <TextAreaField label="Reason" value={reason} onChange={(e) => setReason(e.target.value)} required maxLength={500} rows={2} />
-          <TextField label="Until release (optional)" value={untilLabel} onChange={(e) => setUntilLabel(e.target.value)} maxLength={100} />
+          <TextField
+            label="Until release (optional)"
+            value={untilLabel}
+            onChange={(e) => setUntilLabel(e.target.value)}
+            maxLength={100}
+            hint="The waiver ends by itself when this release, or a later version of it, is loaded."
+          />
           <div className="flex gap-2">
             <Button type="submit" disabled={waive.isPending}>
               Waive
