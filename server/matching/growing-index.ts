@@ -41,6 +41,8 @@ export class GrowingIndex {
   /** each set's bitmap signature (bitmap.ts): a candidate whose bound misses α is dropped at its first hit */
   private signatures = new Int32Array(this.starts.length * SIGNATURE_WORDS);
   private readonly probeSignature = new Int32Array(SIGNATURE_WORDS);
+  /** α(|x|, size) for the partner sizes of the current probe, so the inner loop does no division */
+  private alphas = new Int32Array(256);
   private used = 0;
   private sets = 0;
   private segments: Segment[] = [];
@@ -131,6 +133,9 @@ export class GrowingIndex {
     const keys = Math.min(prefixLength(t, sizeX), sizeX - minOverlap(t, sizeX, lower) + 1);
     const { count, lastX, lastY, touched, segments, signatures, probeSignature } = this;
     writeSignature(x, 0, sizeX, probeSignature, 0);
+    if (upper - lower + 1 > this.alphas.length) this.alphas = new Int32Array(2 * (upper - lower + 1));
+    const alphas = this.alphas;
+    for (let size = lower; size <= upper; size++) alphas[size - lower] = minOverlap(t, sizeX, size);
     let touchedCount = 0;
     for (let i = 0; i < keys; i++) {
       // On a first shared rank at position i the overlap is at most sizeX − i, which reaches
@@ -154,7 +159,7 @@ export class GrowingIndex {
           if (c < 0) continue;
           if (c === 0) {
             touched[touchedCount++] = y;
-            if (overlapBound(probeSignature, 0, sizeX, signatures, y * SIGNATURE_WORDS, sizeY) < minOverlap(t, sizeX, sizeY)) {
+            if (overlapBound(probeSignature, 0, sizeX, signatures, y * SIGNATURE_WORDS, sizeY) < alphas[sizeY - lower]) {
               count[y] = -1;
               continue;
             }
@@ -162,7 +167,7 @@ export class GrowingIndex {
           const j = entries[3 * e + POSITION];
           const restX = sizeX - i - 1;
           const restY = sizeY - j - 1;
-          if (c + 1 + (restX < restY ? restX : restY) < minOverlap(t, sizeX, sizeY)) {
+          if (c + 1 + (restX < restY ? restX : restY) < alphas[sizeY - lower]) {
             count[y] = -1;
             continue;
           }
