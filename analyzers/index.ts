@@ -4,7 +4,7 @@
  * so the command line, the server and the worker all use the same code.
  */
 export { analyzeFile, analyzeSnippet, languageForPath } from './analyze';
-export { analyzeFiles, DEFAULT_TIMEOUT_MS, type AnalyzeFilesOptions } from './pool';
+export { analyzeFiles, AnalyzerPool, DEFAULT_TIMEOUT_MS, type AnalyzeFilesOptions } from './pool';
 export { analyzeSnippetInPool, closeSnippetPool, type SnippetOutcome, type SnippetPoolOptions } from './snippet-pool';
 export { AnalysisLimitError, type AnalysisLimit } from './limits';
 export {

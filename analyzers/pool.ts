@@ -14,6 +14,63 @@ export interface AnalyzeFilesOptions extends AnalyzeOptions, SkipOptions {
   workers?: number;
   /** Per-file time limit in ms; the thread running a file over it is terminated. Default 20,000. */
   timeoutMs?: number;
+  /** A long-lived pool to run on (shared by several callers); without it a pool is made for this call and closed after. */
+  pool?: AnalyzerPool;
+  /** Called each time a file is done, with how many are done of how many will be analysed. */
+  onFileDone?: (done: number, total: number) => void;
+  /** Stops handing out files (the ones running finish, or are cut off) and rejects with the signal's reason. */
+  signal?: AbortSignal;
+}
+
+/**
+ * A pool of analyzer threads that outlives one call, so a process that loads many snapshots (a
+ * job worker) starts its threads once. Callers share its threads: a file waits for a free slot
+ * before its time limit starts, whichever call it belongs to.
+ */
+export class AnalyzerPool {
+  readonly piscina: Piscina;
+  private readonly warmed = new Set<string>();
+  private free: number;
+  private readonly waiting: Array<() => void> = [];
+
+  constructor(readonly threads: number) {
+    if (!Number.isInteger(threads) || threads < 1) throw new RangeError(`an analyzer pool needs a positive whole number of threads, got ${threads}`);
+    this.free = threads;
+    this.piscina = new Piscina({
+      filename: workerUrl().href,
+      minThreads: threads,
+      maxThreads: threads,
+      concurrentTasksPerWorker: 1,
+      // Idle threads are unref'd: a process whose other work is done still exits.
+      idleTimeout: 60_000,
+      resourceLimits: POOL_RESOURCE_LIMITS,
+    });
+  }
+
+  /** Loads the analyzers of these languages in the threads, once per language (before any file's clock starts). */
+  async warm(languages: Iterable<string>): Promise<void> {
+    const fresh = [...languages].filter((l) => !this.warmed.has(l));
+    if (fresh.length === 0) return;
+    for (const l of fresh) this.warmed.add(l);
+    await Promise.all(Array.from({ length: this.threads }, () => this.piscina.run({ warm: fresh })));
+  }
+
+  /** Runs `work` once a thread is free (the slot is given back after). */
+  async withSlot<T>(work: () => Promise<T>): Promise<T> {
+    if (this.free > 0) this.free--;
+    else await new Promise<void>((resolve) => this.waiting.push(resolve));
+    try {
+      return await work();
+    } finally {
+      const next = this.waiting.shift();
+      if (next) next();
+      else this.free++;
+    }
+  }
+
+  async close(): Promise<void> {
+    await this.piscina.destroy();
+  }
 }
 
 /** Default per-file time limit: far above what a file under the size cap needs (bench:analyze). */
@@ -44,7 +101,7 @@ export async function analyzeFiles(
   files: readonly SourceFile[],
   options: AnalyzeFilesOptions = {},
 ): Promise<{ files: FileAnalysis[]; skipped: SkippedFile[] }> {
-  const { workers, timeoutMs = DEFAULT_TIMEOUT_MS, ignore, maxFileBytes, ...analyzeOptions } = options;
+  const { workers, timeoutMs = DEFAULT_TIMEOUT_MS, ignore, maxFileBytes, pool: shared, onFileDone, signal, ...analyzeOptions } = options;
   resolveOptions(analyzeOptions); // reject bad options here, once, not in every thread
   if (!Number.isFinite(timeoutMs) || timeoutMs <= 0) throw new RangeError(`options.timeoutMs must be a positive number, got ${timeoutMs}`);
   if (workers !== undefined && (!Number.isInteger(workers) || workers < 1)) {
@@ -69,41 +126,36 @@ export async function analyzeFiles(
     }
   }
   if (tasks.length === 0) return { files: [], skipped };
+  signal?.throwIfAborted();
 
-  const threads = Math.max(1, Math.min(workers ?? os.availableParallelism(), tasks.length));
-  const pool = new Piscina({
-    filename: workerUrl().href,
-    minThreads: threads,
-    maxThreads: threads,
-    // Each file is its own task with its own abort signal: abortable tasks never share a thread.
-    concurrentTasksPerWorker: 1,
-    idleTimeout: 1_000,
-    resourceLimits: POOL_RESOURCE_LIMITS,
-  });
+  const threads = Math.max(1, Math.min(shared?.threads ?? workers ?? os.availableParallelism(), tasks.length));
+  const pool = shared ?? new AnalyzerPool(threads);
   try {
     // Load the analyzers in every thread first, so that a file's time limit measures its own
     // parse and not the thread's start-up.
-    const warm = [...languages];
-    await Promise.all(Array.from({ length: threads }, () => pool.run({ warm })));
+    await pool.warm(languages);
     // Never more files in flight than threads: a file's clock starts when a thread takes it,
-    // not while it waits in the queue behind others.
+    // not while it waits in the queue behind others (or behind another caller's files).
     const results: FileAnalysis[] = new Array(tasks.length);
     let next = 0;
+    let done = 0;
     const lane = async () => {
-      while (next < tasks.length) {
+      while (next < tasks.length && !signal?.aborted) {
         const i = next++;
-        results[i] = await runOne(pool, tasks[i], timeoutMs);
+        results[i] = await pool.withSlot(() => runOne(pool.piscina, tasks[i], timeoutMs, signal));
+        onFileDone?.(++done, tasks.length);
       }
     };
     await Promise.all(Array.from({ length: threads }, lane));
+    signal?.throwIfAborted();
     return { files: results, skipped };
   } finally {
-    await pool.destroy();
+    if (!shared) await pool.close();
   }
 }
 
-async function runOne(pool: Piscina, task: AnalyzeTask, timeoutMs: number): Promise<FileAnalysis> {
-  const run = await runTimed<FileAnalysis>(pool, task, timeoutMs);
+async function runOne(pool: Piscina, task: AnalyzeTask, timeoutMs: number, signal?: AbortSignal): Promise<FileAnalysis> {
+  const run = await runTimed<FileAnalysis>(pool, task, timeoutMs, signal);
   if (run.ok) return run.value;
   const language = analyzerForPath(task.path)?.id ?? 'unknown';
   const message = run.timedOut

@@ -10,6 +10,7 @@ const commands: Record<string, { describe: string; load: () => Promise<CommandMo
   join: { describe: 'exact similarity join of integer sets, one set per line', load: () => import('./cli/join') },
   scan: { describe: 'find clone classes in folders, in memory, and report them', load: () => import('./cli/scan') },
   import: { describe: 'load a local folder as a snapshot of a repository (database)', load: () => import('./cli/import') },
+  push: { describe: 'upload a folder to a Doublet server as a snapshot, wait, judge it against the clone budget (CI)', load: () => import('./cli/push') },
   classes: { describe: "print a snapshot's fragments, clone pairs and clone classes (database)", load: () => import('./cli/classes') },
   'find-copies': { describe: 'find every indexed copy of a snippet (database)', load: () => import('./cli/find-copies') },
   'user:create': { describe: 'create a user, and its organisation when needed (database)', load: () => import('./cli/user-create') },

@@ -1,3 +1,4 @@
+import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -108,7 +109,29 @@ export function loadConfig() {
       maxExpansionRatio: intFromEnv('DOUBLET_MAX_EXPANSION_RATIO', 200),
       gitCacheDir: path.resolve(process.env.DOUBLET_GIT_CACHE_DIR ?? path.join(dataDir, 'git-cache')),
       gitTimeoutSeconds: intFromEnv('DOUBLET_GIT_TIMEOUT_SECONDS', 300),
+      /** Uploaded archives: in a temporary folder while the request streams them, then one file a snapshot until its load has read it. */
+      uploadDir: path.resolve(process.env.DOUBLET_UPLOAD_DIR ?? path.join(dataDir, 'uploads')),
+      /**
+       * Folders under which a repository may be linked to a local path (an on-premise mirror);
+       * none by default, so a lead cannot point Doublet at whatever repository is on its disk.
+       */
+      gitLocalRoots: (process.env.DOUBLET_GIT_LOCAL_ROOTS ?? '')
+        .split(',')
+        .map((entry) => entry.trim())
+        .filter(Boolean)
+        .map((entry) => path.resolve(entry)),
     },
+    /** Background loads of snapshots (server/jobs/snapshot-load.ts). */
+    loads: {
+      /** Loads one worker process runs at the same time. */
+      perWorker: intFromEnv('DOUBLET_LOADS_PER_WORKER', 2),
+      /** Threads of the process's one analyzer pool, shared by its loads (default: one a core). */
+      analyzerThreads: intFromEnv('DOUBLET_ANALYZER_THREADS', Math.max(1, os.availableParallelism())),
+      /** A load's lease: a worker silent (killed) this long has its load retried by another worker. */
+      leaseSeconds: intFromEnv('DOUBLET_LOAD_LEASE_SECONDS', 3 * 60 * 60),
+    },
+    /** How often the job queue looks for expired leases and retries (pg-boss maintenance). */
+    jobsMaintenanceSeconds: intFromEnv('DOUBLET_JOBS_MAINTENANCE_SECONDS', 60),
   };
 }
 

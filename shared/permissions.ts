@@ -16,6 +16,7 @@ export const ACTIONS = [
   'repositories.delete',
   'snapshots.read',
   'snapshots.upload',
+  'snapshots.cancel',
   'cloneClasses.read',
   'cloneClasses.waive',
   'tasks.read',
@@ -45,6 +46,8 @@ export const MINIMUM_ROLE: Readonly<Record<Action, Role>> = {
   'repositories.delete': 'lead',
   'snapshots.read': 'viewer',
   'snapshots.upload': 'engineer',
+  // Leads, or the engineer who started the load: a record rule in server/policies/snapshots.ts.
+  'snapshots.cancel': 'engineer',
   'cloneClasses.read': 'viewer',
   'cloneClasses.waive': 'lead',
   'tasks.read': 'viewer',

@@ -7,6 +7,7 @@ import { DEMO_SIGN_INS, seedDemo } from '../commands/seedDemo';
 import { seedDemoRepositories } from '../commands/seedDemoRepositories';
 import { projectRoot } from '../config';
 import { connect, disconnect } from '../db/connection';
+import { stopJobs } from '../jobs';
 import { migrateUp } from '../db/migrate';
 import { createDatabaseIfMissing, dropDatabase, ensureDatabaseServer } from '../db/postgres';
 import { initModels } from '../models';
@@ -120,6 +121,8 @@ async function prepareDatabase(): Promise<{ url: string; admin: string }> {
   const organisation = await seedDemo();
   if (!organisation) throw new Error('the bench database was not empty');
   for (const line of await seedDemoRepositories(organisation)) console.error(line);
+  // The loads queued their notices in the bench database: close the queue they opened there.
+  await stopJobs();
   await disconnect();
   return { url, admin };
 }

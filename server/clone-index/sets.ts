@@ -48,6 +48,11 @@ export interface AddSetsOptions {
    * not depend on it.
    */
   probe?: 'auto' | 'memory' | 'database';
+  /**
+   * Called after each probe batch with the new sets probed so far and their number (a load's
+   * progress); may throw to stop the load, which rolls the transaction back.
+   */
+  onProgress?: (done: number, total: number) => void;
 }
 
 const WRITE_CHUNK = 20_000;
@@ -77,7 +82,9 @@ export async function addSets(
   const storeTimings = { dictionary: 0, prefixes: 0 };
   const newSets = await storeNewSets(tx, fresh, idByHash, storeTimings);
   const stored = performance.now();
-  const probed = use.mirror ? probeInMemory(use.mirror, newSets) : await probeNewSets(tx, newSets, options.batchSize ?? 1000);
+  options.onProgress?.(0, newSets.length);
+  const batchSize = options.batchSize ?? 1000;
+  const probed = use.mirror ? probeInMemory(use.mirror, newSets, batchSize, options.onProgress) : await probeNewSets(tx, newSets, batchSize, options.onProgress);
   const { pairs, candidates, timings } = probed;
   await writePairs(tx, pairs);
   const emptyIds = await storeEmptySets(tx, sets, idByHash);
@@ -211,7 +218,7 @@ async function writePairs(tx: Transaction, pairs: StoredPair[]) {
  * Probes the new sets in the mirror: appended in id order, each is probed against every set with
  * a smaller id (old ones, and new ones before it), so each pair is found once.
  */
-function probeInMemory(mirror: MirrorSession, newSets: NewSet[]) {
+function probeInMemory(mirror: MirrorSession, newSets: NewSet[], batchSize: number, onProgress?: (done: number, total: number) => void) {
   const started = performance.now();
   const sets = [...newSets].sort((a, b) => a.id - b.id);
   const first = mirror.appendPending(sets);
@@ -225,11 +232,12 @@ function probeInMemory(mirror: MirrorSession, newSets: NewSet[]) {
       const size = mirror.index.set(m.set).length;
       pairs.push({ a: mirror.setId(m.set), b: x.id, overlap: m.overlap, similarity: jaccard(m.overlap, x.ranks.length, size) });
     }
+    if ((k + 1) % batchSize === 0 || k === sets.length - 1) onProgress?.(k + 1, sets.length);
   });
   return { pairs, candidates, timings: { memory: performance.now() - started, hits: 0, load: 0, verify: 0 } };
 }
 
-async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: number) {
+async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: number, onProgress?: (done: number, total: number) => void) {
   const pairs = new Map<string, StoredPair>();
   let candidates = 0;
   const timings: ProbeTimings & { memory: number } = { memory: 0, hits: 0, load: 0, verify: 0 };
@@ -259,6 +267,7 @@ async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: numbe
       const b = Math.max(x.id, m.setId);
       pairs.set(`${a}:${b}`, { a, b, overlap: m.overlap, similarity: m.similarity });
     }
+    onProgress?.(end, newSets.length);
   }
   return { pairs: [...pairs.values()], candidates, timings };
 }

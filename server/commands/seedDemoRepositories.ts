@@ -4,6 +4,7 @@ import { readFolder } from '../ingest/folder';
 import type { Organisation } from '../models/Organisation';
 import { createRepository, repositorySettings } from './createRepository';
 import { loadSnapshot } from './loadSnapshot';
+import { seedDemoTasks } from './seedDemoTasks';
 
 const DEMO = path.join(projectRoot, 'server', 'demo');
 
@@ -37,5 +38,6 @@ export async function seedDemoRepositories(organisation: Organisation): Promise<
       lines.push(`  ${demo.name}@${label}: ${result.fragmentCount} fragments, ${result.classCount} clone classes`);
     }
   }
+  lines.push(...(await seedDemoTasks(organisation))); // two refactor tasks on the loaded classes (commands/seedDemoTasks.ts)
   return lines;
 }

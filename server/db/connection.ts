@@ -1,6 +1,7 @@
 import { Sequelize } from 'sequelize';
 
 let current: Sequelize | undefined;
+let currentUrl: string | undefined;
 
 /**
  * The process-wide Sequelize instance. `connect(url)` is called once at start-up (server, worker,
@@ -9,7 +10,13 @@ let current: Sequelize | undefined;
 export function connect(url: string): Sequelize {
   if (current) return current;
   current = new Sequelize(url, { dialect: 'postgres', logging: false, pool: { max: 10 } });
+  currentUrl = url;
   return current;
+}
+
+/** The URL `connect` was given, while connected (the job queue opens beside it). */
+export function connectedUrl(): string | undefined {
+  return currentUrl;
 }
 
 /** The connected Sequelize instance; throws when `connect` has not run. */
@@ -22,4 +29,5 @@ export function db(): Sequelize {
 export async function disconnect(): Promise<void> {
   await current?.close();
   current = undefined;
+  currentUrl = undefined;
 }

@@ -18,6 +18,11 @@ export type RawEntry =
 export interface FileListOptions extends SkipOptions {
   /** Drop the one folder every entry sits in (archives of a repository usually have one). Default true. */
   stripTopFolder?: boolean;
+  /**
+   * Read and check every file but keep none of its bytes (the files come back empty): checking an
+   * upload before it is queued costs the unpacking, not the memory of the whole release.
+   */
+  checkOnly?: boolean;
 }
 
 /** The reader's result, in the shape readFolder gives: paths relative, `/`-separated, sorted. */
@@ -27,6 +32,8 @@ export interface FileList {
   /** The single top-level folder that was stripped, if any. */
   strippedFolder?: string;
 }
+
+const NO_BYTES = new Uint8Array(0);
 
 /** macOS's archiver adds `__MACOSX/` (resource forks) beside the real folder; it is never code. */
 const MAC_RESOURCES = '__MACOSX';
@@ -113,7 +120,7 @@ export async function buildFileList(entries: readonly RawEntry[], options: FileL
     }
     const reason = skipReason(path, bytes.content, options);
     if (reason) skipped.set(path, reason);
-    else files.push({ path, content: bytes.content });
+    else files.push({ path, content: options.checkOnly ? NO_BYTES : bytes.content });
   }
   const byPath = (a: { path: string }, b: { path: string }) => (a.path < b.path ? -1 : a.path > b.path ? 1 : 0);
   return {

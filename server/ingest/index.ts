@@ -12,3 +12,4 @@ export { ingestLimits, type IngestLimits } from './limits';
 export { fetchTags, listTags, mirrorPath, parseGitRemote, readTag, redactCredentials, GitRemote, type GitTag, type GitOptions, type TagContents, type TagReadOptions } from './git';
 export { packFolder, type PackOptions, type PackResult } from './pack';
 export type { FileList } from './file-list';
+export { deleteStoredArchive, incomingDir, keepArchive, storedArchivePath, uploadDir } from './stored-archives';

@@ -2,12 +2,16 @@ import type { ClientBase } from 'pg';
 import PgBoss from 'pg-boss';
 import type { Transaction } from 'sequelize';
 import { loadConfig } from '../config';
+import { connectedUrl } from '../db/connection';
 import { localDatabaseUrl } from '../db/postgres';
 import { jobDefinitions, JOBS, type JobData, type QueueName } from './registry';
 
 /** How startJobs() runs pg-boss in this process. */
 export interface StartJobsOptions {
-  /** The database; default DATABASE_URL or the local cluster's database (the app's own). */
+  /**
+   * The database; default the one this process is connected to (so a job queued in a transaction
+   * lands beside the write), else DATABASE_URL or the local cluster's database (the app's own).
+   */
   connectionString?: string;
   /** PostgreSQL schema of pg-boss's tables (default DOUBLET_JOBS_SCHEMA, `pgboss`); tests use one a file. */
   schema?: string;
@@ -48,12 +52,14 @@ async function open(options: StartJobsOptions): Promise<Running> {
   const config = loadConfig();
   const schema = options.schema ?? config.jobsSchema;
   const boss = new PgBoss({
-    connectionString: options.connectionString ?? config.externalDatabaseUrl ?? localDatabaseUrl(config.databaseName),
+    connectionString: options.connectionString ?? connectedUrl() ?? config.externalDatabaseUrl ?? localDatabaseUrl(config.databaseName),
     schema,
     application_name: 'doublet-jobs',
     max: 4,
     // No cron schedules yet: skip the clock monitor and its polling.
     schedule: false,
+    // How soon a job whose worker died (its lease, expireInSeconds, ran out) is failed and retried.
+    maintenanceIntervalSeconds: config.jobsMaintenanceSeconds,
     // Finished jobs keep their data (a mail's body holds one-time links) for a day, not pg-boss's week.
     archiveCompletedAfterSeconds: 3600,
     deleteAfterDays: 1,
@@ -144,7 +150,7 @@ export async function send<Q extends QueueName>(queue: Q, data: JobData<Q>, opti
  * @example
  * await waitingJobs('mail.send', { organisationId }) // mails not yet accepted by the mail server
  */
-export async function waitingJobs(queue: QueueName, match: Record<string, string>): Promise<number> {
+export async function waitingJobs(queue: QueueName, match: Record<string, string | number>): Promise<number> {
   if (!running) await startJobs();
   const current = running!;
   // The schema is a checked SQL name (config) or a test's own; everything else is a parameter.

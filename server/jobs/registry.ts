@@ -1,6 +1,8 @@
 import type { JobDefinition } from './definition';
+import { gitImportJob } from './git-import';
 import { loadNoticesJob } from './load-notices';
 import { mailSendJob } from './mail-send';
+import { snapshotLoadAbandonedJob, snapshotLoadJob } from './snapshot-load';
 
 /**
  * Every job kind, by queue name: one file a job under server/jobs/, listed here. Workers work
@@ -8,6 +10,9 @@ import { mailSendJob } from './mail-send';
  */
 export const JOBS = {
   'mail.send': mailSendJob,
+  'snapshot.load': snapshotLoadJob,
+  'snapshot.load-abandoned': snapshotLoadAbandonedJob,
+  'git.import': gitImportJob,
   'load.notices': loadNoticesJob,
 } as const;
 

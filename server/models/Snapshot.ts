@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
-import type { SnapshotStatus } from '../../shared/api/snapshots';
+import type { LoadProgressDTO, SnapshotStatus } from '../../shared/api/snapshots';
 
 /** The repository's settings a snapshot was loaded with, kept with it (later changes do not rewrite it). */
 export interface SnapshotSettings {
@@ -18,6 +18,10 @@ export class Snapshot extends Model<InferAttributes<Snapshot>, InferCreationAttr
   declare commitSha: CreationOptional<string | null>;
   declare status: CreationOptional<SnapshotStatus>;
   declare error: CreationOptional<string | null>;
+  declare progress: CreationOptional<LoadProgressDTO | null>;
+  declare startedBy: CreationOptional<string | null>;
+  declare archiveSha256: CreationOptional<string | null>;
+  declare loadAttempt: CreationOptional<number>;
   declare settings: CreationOptional<SnapshotSettings>;
   declare fileCount: CreationOptional<number>;
   declare skippedCount: CreationOptional<number>;
@@ -39,8 +43,12 @@ export function initSnapshot(sequelize: Sequelize) {
       label: { type: DataTypes.TEXT, allowNull: false },
       source: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'folder' },
       commitSha: { type: DataTypes.TEXT, allowNull: true },
-      status: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'pending' },
+      status: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'queued' },
       error: { type: DataTypes.TEXT, allowNull: true },
+      progress: { type: DataTypes.JSONB, allowNull: true },
+      startedBy: { type: DataTypes.UUID, allowNull: true },
+      archiveSha256: { type: DataTypes.CHAR(64), allowNull: true, field: 'archive_sha256' },
+      loadAttempt: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       settings: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
       fileCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       skippedCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },

@@ -17,6 +17,7 @@ import { CloneClassMember, initCloneClassMember } from './CloneClassMember';
 import { SnapshotMetric, initSnapshotMetric } from './SnapshotMetric';
 import { OutboxMessage, initOutboxMessage } from './OutboxMessage';
 import { ApiToken, initApiToken } from './ApiToken';
+import { GitLink, initGitLink } from './GitLink';
 
 export {
   Invitation,
@@ -37,6 +38,7 @@ export {
   SnapshotMetric,
   OutboxMessage,
   ApiToken,
+  GitLink,
 };
 
 const initialised = new WeakSet<Sequelize>();
@@ -68,6 +70,7 @@ export function initModels(sequelize: Sequelize): void {
   initSnapshotMetric(sequelize);
   initOutboxMessage(sequelize);
   initApiToken(sequelize);
+  initGitLink(sequelize);
 
   Organisation.hasMany(User, { foreignKey: 'organisationId', as: 'users' });
   User.belongsTo(Organisation, { foreignKey: 'organisationId', as: 'organisation' });

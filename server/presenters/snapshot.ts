@@ -1,4 +1,4 @@
-import { CLASS_STATUSES, type ClassWaiverDTO, type CloneClassDetailDTO, type CloneClassSummaryDTO, type GoneClassDTO, type SnapshotComparisonDTO, type SnapshotDTO, type SnapshotMetricsDTO } from '../../shared/api/snapshots';
+import { CLASS_STATUSES, isLoadActive, type ClassWaiverDTO, type CloneClassDetailDTO, type CloneClassSummaryDTO, type GoneClassDTO, type SnapshotComparisonDTO, type SnapshotDTO, type SnapshotMetricsDTO } from '../../shared/api/snapshots';
 import type { FragmentPair } from '../clone-index/snapshot-pairs';
 import type { ClassRow, MemberRow } from '../queries/classes';
 import type { Snapshot } from '../models/Snapshot';
@@ -30,6 +30,8 @@ export function presentSnapshot(snapshot: Snapshot, metric: SnapshotMetric | nul
     commitSha: snapshot.commitSha,
     status: snapshot.status,
     error: snapshot.error,
+    progress: isLoadActive(snapshot.status) ? (snapshot.progress ?? { phase: 'unpacking', done: 0, total: 0 }) : null,
+    startedById: snapshot.startedBy,
     fileCount: snapshot.fileCount,
     skippedCount: snapshot.skippedCount,
     failedCount: snapshot.failedCount,

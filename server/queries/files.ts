@@ -34,7 +34,7 @@ export async function storeContents(tx: Transaction, contents: Map<string, Uint8
 }
 
 /** The analysis id of each content hash already analyzed under the options key. */
-export async function findAnalyses(tx: Transaction, hashes: string[], optionsKey: string): Promise<Map<string, number>> {
+export async function findAnalyses(tx: Transaction | undefined, hashes: string[], optionsKey: string): Promise<Map<string, number>> {
   const rows = await select<{ id: number; contentHash: string }>(
     tx,
     'select id, content_hash as "contentHash" from analyses where options_key = $1 and content_hash = any($2::text[])',
@@ -65,17 +65,30 @@ export async function storeAnalyses(
   analysisIds: Map<string, number>,
 ): Promise<void> {
   if (fresh.length === 0) return;
+  // Another load may have stored the same content's analysis meanwhile (loads analyse outside any
+  // lock): that one is kept, and it is the same, since analysis is a pure function of the content.
   const rows = await select<{ id: number; contentHash: string }>(
     tx,
     `insert into analyses (content_hash, options_key, language, error)
      select h, $1, l, e from unnest($2::text[], $3::text[], $4::text[]) as t(h, l, e)
+     on conflict (content_hash, options_key) do nothing
      returning id, content_hash as "contentHash"`,
     [optionsKey, fresh.map((f) => f.hash), fresh.map((f) => f.analysis.language), fresh.map((f) => f.analysis.error ?? null)],
   );
-  for (const r of rows) analysisIds.set(r.contentHash, r.id);
+  const inserted = new Set<string>();
+  for (const r of rows) {
+    analysisIds.set(r.contentHash, r.id);
+    inserted.add(r.contentHash);
+  }
+  const theirs = fresh.filter((f) => !inserted.has(f.hash)).map((f) => f.hash);
+  if (theirs.length > 0) for (const [hash, id] of await findAnalyses(tx, theirs, optionsKey)) analysisIds.set(hash, id);
   const columns: unknown[][] = Array.from({ length: 14 }, () => []);
   let setIndex = 0;
   for (const { hash, analysis } of fresh) {
+    if (!inserted.has(hash)) {
+      setIndex += analysis.fragments.length;
+      continue;
+    }
     analysis.fragments.forEach((f, ordinal) => {
       const values = [analysisIds.get(hash), ordinal, f.name, f.kind, f.startLine, f.startColumn, f.endLine, f.endColumn, f.tokens, f.tokenStart, f.tokenEnd, f.rawHash, f.normalizedHash, setIds[setIndex++]];
       values.forEach((v, i) => columns[i].push(v));
@@ -113,6 +126,18 @@ export async function storeSnapshotFiles(tx: Transaction, snapshotId: number, ro
       [snapshotId, slice.map((r) => r.path), slice.map((r) => r.contentHash), slice.map((r) => r.analysisId), slice.map((r) => r.language), slice.map((r) => r.skipReason), slice.map((r) => r.error)],
     );
   }
+}
+
+/** Advisory lock key between loads storing a snapshot's files (shared) and deletions of unheld file texts (exclusive). */
+const CONTENTS_LOCK = 0x646f75636f;
+
+/**
+ * Taken (shared) by a load's last transaction before it relies on stored texts and analyses, and
+ * (exclusive) by a deletion of unheld texts: a deletion never removes what a load in flight is
+ * about to hold, and loads never wait for each other.
+ */
+export function lockContents(tx: Transaction, mode: 'load' | 'delete'): Promise<void> {
+  return execute(tx, mode === 'load' ? 'select pg_advisory_xact_lock_shared($1)' : 'select pg_advisory_xact_lock($1)', [CONTENTS_LOCK]);
 }
 
 /**

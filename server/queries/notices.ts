@@ -125,10 +125,18 @@ export async function claimLoadNotices(tx: Transaction, snapshotId: number): Pro
 }
 
 /**
- * The assignees of open refactor tasks on these class lineages, with the lineages each one has
- * open tasks on. Refactor tasks are not stored yet, so nobody: drift notices go to leads only.
- * When tasks land, this is the one function to fill in (open = not done and not won't do).
+ * The assignees of open refactor tasks (open, in progress, in review) on these class lineages,
+ * with the lineages each one has open tasks on.
  */
-export async function openTaskAssigneesOfLineages(_tx: Transaction | undefined, _lineageIds: number[]): Promise<Map<string, Set<number>>> {
-  return new Map();
+export async function openTaskAssigneesOfLineages(tx: Transaction | undefined, lineageIds: number[]): Promise<Map<string, Set<number>>> {
+  if (lineageIds.length === 0) return new Map();
+  const rows = await select<{ assigneeId: string; lineageId: number }>(
+    tx,
+    `select t.assignee_id as "assigneeId", t.lineage_id as "lineageId" from tasks t
+      where t.lineage_id = any($1::int[]) and t.assignee_id is not null and t.status in ('open', 'in_progress', 'in_review')`,
+    [lineageIds],
+  );
+  const byAssignee = new Map<string, Set<number>>();
+  for (const row of rows) byAssignee.set(row.assigneeId, (byAssignee.get(row.assigneeId) ?? new Set()).add(row.lineageId));
+  return byAssignee;
 }

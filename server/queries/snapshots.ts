@@ -2,6 +2,7 @@
 import type { InferAttributes, Transaction } from 'sequelize';
 import { execute, select } from '../clone-index/sql';
 import { Repository } from '../models/Repository';
+import type { LoadProgressDTO, SnapshotStatus } from '../../shared/api/snapshots';
 import { Snapshot, type SnapshotSettings } from '../models/Snapshot';
 import { SnapshotMetric } from '../models/SnapshotMetric';
 
@@ -68,9 +69,113 @@ export async function insertRunningSnapshot(snapshot: NewSnapshot): Promise<numb
   return id;
 }
 
-/** Marks a snapshot failed with its reason. */
-export function markSnapshotFailed(snapshotId: number, reason: string): Promise<void> {
-  return execute(undefined, `update snapshots set status = 'failed', error = $2, updated_at = now() where id = $1`, [snapshotId, reason]);
+/** Inserts an uploaded snapshot in status 'queued' (in the transaction that queues its load) and returns it. */
+export async function insertQueuedSnapshot(tx: Transaction, snapshot: NewSnapshot & { startedBy: string | null; archiveSha256: string }): Promise<Snapshot> {
+  const [{ id }] = await select<{ id: number }>(
+    tx,
+    `insert into snapshots (repository_id, label, source, commit_sha, status, settings, started_by, archive_sha256, progress)
+     values ($1, $2, $3, $4, 'queued', $5, $6, $7, $8) returning id`,
+    [snapshot.repositoryId, snapshot.label, snapshot.source, snapshot.commitSha, JSON.stringify(snapshot.settings), snapshot.startedBy,
+      snapshot.archiveSha256, JSON.stringify({ phase: 'unpacking', done: 0, total: 0 })],
+  );
+  return (await Snapshot.findByPk(id, { transaction: tx }))!;
+}
+
+/**
+ * Starts a new attempt at a queued or running snapshot's load (a job's first run, or a retry after
+ * a worker died): status 'running', the attempt number raised (an older attempt still at work
+ * stops at its next write), progress back to the start. Returns the attempt, or null when the load
+ * has ended (ready, failed, cancelled) or the snapshot is gone.
+ */
+export async function startLoadAttempt(snapshotId: number): Promise<number | null> {
+  const [row] = await select<{ attempt: number }>(
+    undefined,
+    `update snapshots set status = 'running', load_attempt = load_attempt + 1, error = null, updated_at = now(),
+       progress = '{"phase":"unpacking","done":0,"total":0}'
+     where id = $1 and status in ('queued', 'running') returning load_attempt as attempt`,
+    [snapshotId],
+  );
+  return row?.attempt ?? null;
+}
+
+/**
+ * Writes a running load's progress, only while the row is still this attempt's and running.
+ * Otherwise answers why not: the load was cancelled (or ended), its snapshot deleted, or a retry
+ * took it over; the load stops then.
+ */
+export async function writeLoadProgress(snapshotId: number, attempt: number, progress: LoadProgressDTO): Promise<'ours' | 'cancelled' | 'gone' | 'superseded'> {
+  const rows = await select<{ id: number }>(
+    undefined,
+    `update snapshots set progress = $3, updated_at = now() where id = $1 and load_attempt = $2 and status = 'running' returning id`,
+    [snapshotId, attempt, JSON.stringify(progress)],
+  );
+  if (rows.length === 1) return 'ours';
+  const [row] = await select<{ status: SnapshotStatus; attempt: number }>(undefined, 'select status, load_attempt as attempt from snapshots where id = $1', [snapshotId]);
+  if (!row) return 'gone';
+  return row.attempt !== attempt ? 'superseded' : 'cancelled';
+}
+
+/** First key of the per-repository advisory lock (the second is the repository id). */
+const REPOSITORY_LOAD_LOCK = 0x646f;
+
+/**
+ * Serialises the last step of loads of one repository (each compares with the snapshot ready
+ * before it and continues its class lineages, so two must not do it at once); loads of other
+ * repositories are not held up.
+ */
+export function lockRepositoryLoads(tx: Transaction, repositoryId: number): Promise<void> {
+  return execute(tx, 'select pg_advisory_xact_lock($1::int, $2::int)', [REPOSITORY_LOAD_LOCK, repositoryId]);
+}
+
+/** Where a load's row stands when it is about to finish: locked in `tx` until the end of the load's last transaction. */
+export async function lockLoadingSnapshot(tx: Transaction, snapshotId: number): Promise<{ status: SnapshotStatus; attempt: number } | null> {
+  const [row] = await select<{ status: SnapshotStatus; attempt: number }>(
+    tx,
+    'select status, load_attempt as attempt from snapshots where id = $1 for update',
+    [snapshotId],
+  );
+  return row ?? null;
+}
+
+/**
+ * Removes whatever an earlier attempt of this snapshot's load may have left (its files, classes,
+ * figures); the load's last transaction writes them all or none, so this is a safety net.
+ */
+export async function clearPartialLoad(snapshotId: number): Promise<void> {
+  await execute(undefined, 'delete from clone_classes where snapshot_id = $1', [snapshotId]);
+  await execute(undefined, 'delete from snapshot_metrics where snapshot_id = $1', [snapshotId]);
+  await execute(undefined, 'delete from snapshot_files where snapshot_id = $1', [snapshotId]);
+}
+
+/** The snapshots of a repository whose loads are queued or running (their archives are still kept). */
+export async function unfinishedLoadIds(tx: Transaction, repositoryId: number): Promise<number[]> {
+  const rows = await select<{ id: number }>(tx, `select id from snapshots where repository_id = $1 and status in ('queued', 'running')`, [repositoryId]);
+  return rows.map((r) => r.id);
+}
+
+/** Deletes a snapshot whose load failed or was cancelled (it holds no files or classes), freeing its label. */
+export async function deleteEndedSnapshot(tx: Transaction, snapshotId: number): Promise<void> {
+  await execute(tx, `delete from snapshots where id = $1 and status in ('failed', 'cancelled')`, [snapshotId]);
+}
+
+/** Cancels a queued or running load; false when it has already ended. */
+export async function cancelLoad(snapshotId: number): Promise<boolean> {
+  const rows = await select<{ id: number }>(
+    undefined,
+    `update snapshots set status = 'cancelled', progress = null, updated_at = now() where id = $1 and status in ('queued', 'running') returning id`,
+    [snapshotId],
+  );
+  return rows.length === 1;
+}
+
+/** Marks a snapshot failed with its reason (unless its load has ended otherwise; with `attempt`, only while that attempt holds it). */
+export function markSnapshotFailed(snapshotId: number, reason: string, attempt?: number): Promise<void> {
+  return execute(
+    undefined,
+    `update snapshots set status = 'failed', error = $2, progress = null, updated_at = now()
+     where id = $1 and status in ('queued', 'running') and ($3::int is null or load_attempt = $3)`,
+    [snapshotId, reason, attempt ?? null],
+  );
 }
 
 /** A finished load's counts, as the snapshot row keeps them. */
@@ -89,7 +194,7 @@ export interface SnapshotCounts {
 export function markSnapshotReady(tx: Transaction, snapshotId: number, counts: SnapshotCounts): Promise<void> {
   return execute(
     tx,
-    `update snapshots set status = 'ready', file_count = $2, skipped_count = $3, failed_count = $4, analyzed_file_count = $5,
+    `update snapshots set status = 'ready', progress = null, error = null, file_count = $2, skipped_count = $3, failed_count = $4, analyzed_file_count = $5,
        fragment_count = $6, new_set_count = $7, clone_ratio = $8, timings = $9, updated_at = now() where id = $1`,
     [snapshotId, counts.fileCount, counts.skippedCount, counts.failedCount, counts.analyzedFileCount, counts.fragmentCount,
       counts.newSetCount, counts.cloneRatio, JSON.stringify(counts.timings)],
@@ -109,6 +214,28 @@ export function insertSnapshotMetrics(tx: Transaction, snapshotId: number, m: Sn
     [snapshotId, m.fragmentTokens, m.clonedTokens, m.cloneRatio, m.pairCount, m.classCount, m.type1Pairs, m.type2Pairs, m.type3Pairs,
       m.crossPairCount, m.newClassCount, m.driftedClassCount, m.goneClassCount, m.unwaivedClonedTokens],
   );
+}
+
+/**
+ * Inserts a snapshot row already failed, with its reason: a release that could not even be read
+ * (a git tag over the limits) still shows in the list, and its label stays taken.
+ */
+export async function insertFailedSnapshot(snapshot: NewSnapshot, reason: string): Promise<number> {
+  const [{ id }] = await select<{ id: number }>(
+    undefined,
+    `insert into snapshots (repository_id, label, source, commit_sha, status, error, settings)
+     values ($1, $2, $3, $4, 'failed', $5, $6) returning id`,
+    [snapshot.repositoryId, snapshot.label, snapshot.source, snapshot.commitSha, reason, JSON.stringify(snapshot.settings)],
+  );
+  return id;
+}
+
+/**
+ * Deletes a snapshot whose load did not finish (failed, or left running by a worker that died),
+ * so that its release can be loaded again; a ready snapshot is never deleted here.
+ */
+export function deleteUnfinishedSnapshot(snapshotId: number): Promise<void> {
+  return execute(undefined, `delete from snapshots where id = $1 and status <> 'ready'`, [snapshotId]);
 }
 
 /** A snapshot's release label (inside its load's transaction too), or undefined. */

@@ -13,6 +13,8 @@ import { repositoryRoutes } from './repositories';
 import { snapshotRoutes } from './snapshots';
 import { outboxRoutes } from './outbox';
 import { apiTokenRoutes } from './tokens';
+import { memberRoutes, taskRoutes } from './tasks';
+import { gitLinkRoutes } from './git-links';
 import { accountRoutes } from './account';
 
 /** Every resource's routes. Add new router files here; tests read this list. */
@@ -27,6 +29,9 @@ export const ROUTE_GROUPS: RouteGroup[] = [
   findCopiesRoutes,
   outboxRoutes,
   apiTokenRoutes,
+  taskRoutes,
+  memberRoutes,
+  gitLinkRoutes,
   accountRoutes,
 ];
 

@@ -1,15 +1,19 @@
+import fs from 'node:fs/promises';
 import { createRepositorySchema, repositoryParamsSchema, updateRepositorySchema, type RepositoryListDTO, type RepositoryMetricsDTO } from '../../shared/api/repositories';
-import type { SnapshotListDTO } from '../../shared/api/snapshots';
+import { uploadSnapshotSchema, type SnapshotAnswerDTO, type SnapshotListDTO } from '../../shared/api/snapshots';
 import { currentUser } from '../auth/current-user';
 import { createRepository, updateRepository } from '../commands/createRepository';
 import { deleteRepository } from '../commands/deleteRepository';
-import { found } from '../errors';
+import { uploadSnapshot } from '../commands/uploadSnapshot';
+import { found, ValidationError } from '../errors';
+import { tokenScopeOf } from '../policies/api-tokens';
 import { authorize } from '../policies';
 import { presentRepository, presentTrendPoint } from '../presenters/repository';
 import { presentSnapshot } from '../presenters/snapshot';
 import { findRepository, latestReadySnapshot, latestReadySnapshots, listRepositories, repositoryTrend } from '../queries/repositories';
-import { listSnapshots } from '../queries/snapshots';
+import { listSnapshots, snapshotMetric } from '../queries/snapshots';
 import { defineRoutes } from './define';
+import { receiveArchive } from './receive-archive';
 import { parse } from './validate';
 
 /** /api/repositories: tracked codebases, their settings, snapshots and trend. */
@@ -72,6 +76,31 @@ export const repositoryRoutes = defineRoutes('/repositories', [
       authorize(currentUser(req), 'repositories.delete', repository);
       await deleteRepository(repository);
       res.status(204).end();
+    },
+  },
+  {
+    method: 'post',
+    path: '/:id/snapshots',
+    guard: 'snapshots.upload',
+    token: 'upload',
+    handler: async (req, res) => {
+      const { id } = parse(repositoryParamsSchema, req.params);
+      const actor = currentUser(req);
+      const repository = found(await findRepository(actor.organisationId, id), 'Repository');
+      authorize(actor, 'snapshots.upload', repository);
+      // Only now, with the caller allowed, is the body read: streamed to a temporary file.
+      const tempFile = await receiveArchive(req, res);
+      let label: string;
+      try {
+        ({ label } = parse(uploadSnapshotSchema, req.body));
+        if (!tempFile) throw new ValidationError('Send the archive (.zip, .tar, .tar.gz) as multipart/form-data in the field "archive".', 'archive');
+      } catch (error) {
+        if (tempFile) await fs.rm(tempFile, { force: true });
+        throw error;
+      }
+      const { snapshot, created } = await uploadSnapshot({ repository, label, tempFile, startedBy: tokenScopeOf(actor) ? null : actor.id });
+      const answer: SnapshotAnswerDTO = { snapshot: presentSnapshot(snapshot, created ? null : await snapshotMetric(snapshot.id)) };
+      res.status(created ? 202 : 200).json(answer);
     },
   },
   {

@@ -1,5 +1,6 @@
-import { classListQuerySchema, idParamsSchema, type CloneClassPageDTO } from '../../shared/api/snapshots';
+import { classListQuerySchema, idParamsSchema, type CloneClassPageDTO, type SnapshotAnswerDTO } from '../../shared/api/snapshots';
 import { currentUser } from '../auth/current-user';
+import { cancelSnapshotLoad } from '../commands/uploadSnapshot';
 import { found } from '../errors';
 import { authorize } from '../policies';
 import { presentCloneClass, presentComparison, presentSnapshot } from '../presenters/snapshot';
@@ -20,6 +21,19 @@ export const snapshotRoutes = defineRoutes('/snapshots', [
       const { snapshot, repository } = found(await findSnapshot(currentUser(req).organisationId, id), 'Snapshot');
       authorize(currentUser(req), 'snapshots.read', repository);
       res.json(presentSnapshot(snapshot, await snapshotMetric(id)));
+    },
+  },
+  {
+    method: 'post',
+    path: '/:id/cancel',
+    guard: 'snapshots.cancel',
+    handler: async (req, res) => {
+      const { id } = parse(idParamsSchema, req.params);
+      const actor = currentUser(req);
+      const { snapshot, repository } = found(await findSnapshot(actor.organisationId, id), 'Snapshot');
+      authorize(actor, 'snapshots.cancel', { organisationId: repository.organisationId, repositoryId: repository.id, startedBy: snapshot.startedBy });
+      const answer: SnapshotAnswerDTO = { snapshot: presentSnapshot(await cancelSnapshotLoad(snapshot), null) };
+      res.json(answer);
     },
   },
   {

@@ -19,11 +19,11 @@ export const NOTICE_LABELS: Record<NoticeKind, { label: string; description: str
   },
   budgetExceeded: {
     label: 'Snapshot over its clone budget',
-    description: 'For leads: a new snapshot’s unwaived clone ratio is over the repository’s budget.',
+    description: 'For leads and admins: a new snapshot’s clone ratio without waived classes is over its repository’s budget.',
   },
   classesDrifted: {
     label: 'Drifted classes in a new snapshot',
-    description: 'For leads and assignees: copies of a class were changed apart in a new snapshot.',
+    description: 'For leads, admins and assignees of their tasks: some copies of a class changed in a new snapshot while others did not.',
   },
 };
 

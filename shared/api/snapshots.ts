@@ -30,10 +30,52 @@ export const classListQuerySchema = z.object({
 /** Parsed class list query. */
 export type ClassListQuery = z.infer<typeof classListQuerySchema>;
 
-/** Where a snapshot's load stands: queued, running, done, or failed with its reason. */
-export const SNAPSHOT_STATUSES = ['pending', 'running', 'ready', 'failed'] as const;
+/** Where a snapshot's load stands: waiting for a worker, in progress, done, failed with its reason, or cancelled. */
+export const SNAPSHOT_STATUSES = ['queued', 'running', 'ready', 'failed', 'cancelled'] as const;
 /** A snapshot status. */
 export type SnapshotStatus = (typeof SNAPSHOT_STATUSES)[number];
+
+/** Whether a load in this status may still change (it is waiting or in progress). */
+export function isLoadActive(status: SnapshotStatus): boolean {
+  return status === 'queued' || status === 'running';
+}
+
+/**
+ * The steps of a load, in order: reading the archive, analysing the files never analysed before,
+ * adding their fragments' shingle sets to the index, then deriving the snapshot's pairs and classes.
+ */
+export const LOAD_PHASES = ['unpacking', 'analysing', 'indexing', 'deriving'] as const;
+/** A load phase. */
+export type LoadPhase = (typeof LOAD_PHASES)[number];
+
+/** How far a queued or running load has got: its phase and `done` of `total` (files, sets; 0 of 0 when the phase has no count). */
+export interface LoadProgressDTO {
+  phase: LoadPhase;
+  done: number;
+  total: number;
+}
+
+/** Largest archive label: a release name. */
+export const MAX_LABEL_LENGTH = 100;
+
+/** Text fields of POST /api/repositories/:id/snapshots (multipart/form-data; the file is the `archive` field). */
+export const uploadSnapshotSchema = z
+  .object({
+    label: z
+      .string({ error: 'Name the release in the field "label".' })
+      .trim()
+      .min(1, 'Name the release in the field "label".')
+      .max(MAX_LABEL_LENGTH, `A label has at most ${MAX_LABEL_LENGTH} characters.`)
+      .refine((label) => ![...label].some((c) => c.charCodeAt(0) < 32 || c.charCodeAt(0) === 127), 'A label may not hold control characters.'),
+  })
+  .strict();
+/** Parsed upload fields. */
+export type UploadSnapshotInput = z.infer<typeof uploadSnapshotSchema>;
+
+/** POST /api/repositories/:id/snapshots (202 for a new load, 200 for the same archive sent again under its label) and POST /api/snapshots/:id/cancel. */
+export interface SnapshotAnswerDTO {
+  snapshot: SnapshotDTO;
+}
 
 /** A snapshot's figures (absent until the load has finished). */
 export interface SnapshotMetricsDTO {
@@ -63,7 +105,12 @@ export interface SnapshotDTO {
   source: string;
   commitSha: string | null;
   status: SnapshotStatus;
+  /** why the load failed, in words (null unless failed) */
   error: string | null;
+  /** where a queued or running load stands (null once it has ended) */
+  progress: LoadProgressDTO | null;
+  /** who uploaded it (null for loads started from the command line, or once that user is deleted) */
+  startedById: string | null;
   fileCount: number;
   skippedCount: number;
   failedCount: number;

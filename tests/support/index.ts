@@ -5,3 +5,4 @@ export { anonymousAgent, signedInAgent, type Agent } from './agents';
 export { buildRepository, describedPairs, loadFolder, RELEASES } from './snapshots';
 export { PASTED_PRICING_RULE } from './snippets';
 export { useMail, mailTo, invitationTokenMailedTo, QUICK_RETRIES, type MailHarness } from './mail';
+export { useJobs, waitForSnapshot, type JobsHarness } from './jobs';

@@ -3,6 +3,7 @@ import { QueryTypes, Sequelize } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { connect, db, disconnect } from '../../../server/db/connection';
 import { migrateUp } from '../../../server/db/migrate';
+import { startJobs, stopJobs } from '../../../server/jobs';
 import { up } from '../../../server/migrations/0040-class-lineages';
 import { initModels } from '../../../server/models';
 import { buildRepository, loadFolder, RELEASES } from '../../support';
@@ -21,9 +22,12 @@ beforeAll(async () => {
   url.pathname = `/${name}`;
   initModels(connect(url.toString()));
   await migrateUp(db());
+  // A load queues its notices in its own transaction: the job queue must live in this database too.
+  await startJobs({ connectionString: url.toString() });
 }, 60_000);
 
 afterAll(async () => {
+  await stopJobs({ timeoutMs: 1000 });
   await disconnect();
   await admin.query(`drop database if exists ${name}`);
   await admin.close();

@@ -76,6 +76,19 @@ describe('readArchive', () => {
     expect(result.archiveBytes).toBe(bytes.length);
   });
 
+  it('checks an archive without keeping its bytes (checkOnly): the same list, skips and hash, every file empty', async () => {
+    const bytes = zlib.gzipSync(buildTar([{ name: 'r/src/quote.js', data: quote }, { name: 'r/logo.js', data: Buffer.from([0x89, 0x50, 0x4e, 0x47, 0, 0, 1]) }]));
+    const { file } = upload('release.tgz', bytes);
+    const full = await readArchive(file);
+    const checked = await readArchive(file, { checkOnly: true });
+    expect(checked.files.map((f) => f.path)).toEqual(full.files.map((f) => f.path));
+    expect(checked.files.map((f) => f.content.byteLength)).toEqual([0]);
+    expect(full.files[0]!.content.byteLength).toBe(quote.length);
+    expect(checked.skipped).toEqual(full.skipped);
+    expect(checked.sha256).toBe(full.sha256);
+    expect(checked.unpackedBytes).toBe(full.unpackedBytes);
+  });
+
   it('gives the same file list for a tar.gz of a folder as readFolder gives for the folder', async () => {
     const root = path.join(work, 'checkout', 'depot-tools-2026.11');
     const put = (rel: string, content: string | Buffer) => {

@@ -3,7 +3,7 @@ import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { select } from '../../../server/clone-index/sql';
 import { db } from '../../../server/db/connection';
-import { budgetNotice, isOverBudget, sendLoadNotices } from '../../../server/mail/load-notices';
+import { budgetNotice, isOverBudget, queueLoadNotices, sendLoadNotices } from '../../../server/mail/load-notices';
 import type { LoadNoticeFacts } from '../../../server/queries/notices';
 import { saveNoticeSettings } from '../../../server/queries/notices';
 import { buildRepository, buildTeam, loadFolder, mailTo, RELEASES, useDatabase, useMail } from '../../support';
@@ -89,6 +89,21 @@ describe('notices after a load', () => {
     // The job ran once already; running it again (a retry) sends nothing more.
     expect(await sendLoadNotices(snapshotId)).toEqual({ budget: 0, drift: 0 });
     expect(await queuedTo(team.admin.email)).toEqual([toAdmin.subject]);
+  }, 120_000);
+
+  it('queues the job inside the load’s transaction: none when it rolls back', async () => {
+    const team = await buildTeam();
+    const repository = await buildRepository({ organisationId: team.organisation.id, cloneBudget: 0.001 });
+    const { snapshotId } = await loadFolder(repository, `${RELEASES}/v1`, '2026.09');
+    expect(await noticeJobs(snapshotId)).toBe(1);
+    const rolledBack = db().transaction(async (tx) => {
+      await queueLoadNotices(tx, snapshotId);
+      throw new Error('the load failed after its snapshot was marked ready');
+    });
+    await expect(rolledBack).rejects.toThrow('the load failed');
+    expect(await noticeJobs(snapshotId)).toBe(1);
+    await db().transaction((tx) => queueLoadNotices(tx, snapshotId));
+    expect(await noticeJobs(snapshotId)).toBe(2);
   }, 120_000);
 
   it('sends no budget notice for a snapshot within its budget', async () => {

@@ -1,8 +1,9 @@
 import { describe, expect, it } from 'vitest';
+import { createApp } from '../../../server/app';
 import { db } from '../../../server/db/connection';
 import { sendNotice, type NoticeRecipient } from '../../../server/mail';
 import { saveNoticeSettings } from '../../../server/queries/notices';
-import { buildTeam, buildUser, mailTo, uniqueEmail, useDatabase, useMail } from '../../support';
+import { buildTeam, buildUser, mailTo, signedInAgent, uniqueEmail, useDatabase, useMail } from '../../support';
 
 useDatabase();
 const mail = useMail();
@@ -36,6 +37,12 @@ describe('sendNotice', () => {
     expect(toLead.html).toContain('<b>4471</b>');
     expect(toLead.organisationId).toBe(team.organisation.id);
     expect(await mailTo(team.admin.email)).toHaveLength(1);
+
+    // Over SMTP into the catcher, and from there to the organisation's admin through GET /api/outbox.
+    const admin = await signedInAgent(createApp(), team.admin);
+    const outbox = (await admin.get('/api/outbox').expect(200)).body as { messages: { to: string; subject: string }[] };
+    expect(outbox.messages.map((m) => m.to).sort()).toEqual([team.admin.email, team.lead.email].sort());
+    expect(outbox.messages.map((m) => m.subject)).toContain(`Wagon 4471 for ${team.lead.name}`);
   });
 
   it('drops recipients who turned that kind off, and only that kind', async () => {

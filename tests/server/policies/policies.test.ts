@@ -20,6 +20,7 @@ const EXPECTED: Record<Action, Role[]> = {
   'repositories.delete': ['admin', 'lead'],
   'snapshots.read': ['admin', 'lead', 'engineer', 'viewer'],
   'snapshots.upload': ['admin', 'lead', 'engineer'],
+  'snapshots.cancel': ['admin', 'lead', 'engineer'],
   'cloneClasses.read': ['admin', 'lead', 'engineer', 'viewer'],
   'cloneClasses.waive': ['admin', 'lead'],
   'tasks.read': ['admin', 'lead', 'engineer', 'viewer'],
@@ -78,6 +79,21 @@ describe('record rules', () => {
       expect(allows(actor(role), 'tasks.work', otherTask)).toBe(true);
       expect(allows(actor(role), 'tasks.work', unassigned)).toBe(true);
     }
+  });
+
+  it('lets leads cancel any load of their organisation, an engineer only the loads they started', () => {
+    const theirs = { organisationId: ORG, repositoryId: 1, startedBy: 'engineer-id' };
+    const someoneElses = { organisationId: ORG, repositoryId: 1, startedBy: 'someone-else' };
+    const fromCli = { organisationId: ORG, repositoryId: 1, startedBy: null };
+    expect(allows(actor('engineer'), 'snapshots.cancel', theirs)).toBe(true);
+    expect(allows(actor('engineer'), 'snapshots.cancel', someoneElses)).toBe(false);
+    expect(allows(actor('engineer'), 'snapshots.cancel', fromCli)).toBe(false);
+    for (const role of ['lead', 'admin'] as const) {
+      expect(allows(actor(role), 'snapshots.cancel', someoneElses)).toBe(true);
+      expect(allows(actor(role), 'snapshots.cancel', fromCli)).toBe(true);
+      expect(allows(actor(role), 'snapshots.cancel', { ...theirs, organisationId: 'org-2' })).toBe(false);
+    }
+    expect(allows(actor('viewer'), 'snapshots.cancel', { ...theirs, startedBy: 'viewer-id' })).toBe(false);
   });
 
   it('never lets a viewer work on a task, even one assigned to them', () => {

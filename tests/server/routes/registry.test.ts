@@ -35,6 +35,10 @@ const VALID_BODIES: Record<string, (role: Role) => object> = {
   'POST /api/find-copies': () => ({ language: 'typescript', text: 'function weighWagon(axles: number) { return axles * 2; }' }),
   'POST /api/tokens': () => ({ name: 'Registry check', repositoryId: 2147483647 }),
   'POST /api/clone-classes/:id/waiver': () => ({ reason: 'Registry check' }),
+  'POST /api/tasks': () => ({ cloneClassId: 2147483647, assigneeId: MISSING_UUID, title: 'Registry check' }),
+  'PATCH /api/tasks/:id': () => ({ status: 'in_progress' }),
+  'POST /api/tasks/:id/comments': () => ({ body: 'Registry check' }),
+  'PUT /api/repositories/:id/git': () => ({ remoteUrl: 'https://git.brackenfold.example/freight-platform.git' }),
 };
 
 const routes = registeredRoutes();

@@ -1,3 +1,4 @@
+import AdmZip from 'adm-zip';
 import crypto from 'node:crypto';
 import type { Express } from 'express';
 import request from 'supertest';
@@ -7,9 +8,18 @@ import { SESSION_COOKIE } from '../../../server/auth/session';
 import { execute, select } from '../../../server/clone-index/sql';
 import { registeredRoutes } from '../../../server/routes';
 import type { ApiTokenDTO, ApiTokenListDTO, CreatedApiTokenDTO } from '../../../shared/api/tokens';
-import { anonymousAgent, buildRepository, buildTeam, loadFolder, RELEASES, signedInAgent, TEST_PASSWORD, useDatabase, type Agent } from '../../support';
+import { anonymousAgent, buildRepository, buildTeam, loadFolder, RELEASES, signedInAgent, TEST_PASSWORD, useDatabase, useJobs, type Agent } from '../../support';
 
 useDatabase();
+// Uploads queue loads: on a queue schema of this file's own, worked here.
+useJobs({ work: true });
+
+/** The invented demo release, zipped. */
+function demoZip(): Buffer {
+  const zip = new AdmZip();
+  zip.addLocalFolder(`${RELEASES}/v1`, 'v1');
+  return zip.toBuffer();
+}
 
 let app: Express;
 beforeAll(() => {
@@ -253,21 +263,45 @@ describe('every declared route × an API token', () => {
         'GET /api/snapshots/:id/classes read',
         'GET /api/snapshots/:id/comparison read',
         'GET /api/clone-classes/:id read',
+        'POST /api/repositories/:id/git/import upload',
+        'POST /api/repositories/:id/snapshots upload',
       ].sort(),
     );
   });
 
+  /**
+   * What an opted-in route answers once past the token check, where that is not 200: a git import
+   * of a repository with no git link is 409 (the handler ran, after authorize()).
+   */
+  const HANDLED_STATUS: Record<string, number> = { 'POST /api/repositories/:id/git/import': 409 };
+
   for (const route of routes) {
     const label = `${route.method.toUpperCase()} ${route.path}`;
+    if (label === 'POST /api/repositories/:id/snapshots') {
+      it(`${label}: queues an upload for the token's repository, 403 for another of its organisation, 404 for another organisation's`, async () => {
+        const send = (agent: ReturnType<typeof request> | Agent, which: 'own' | 'sibling' | 'foreign', withToken: boolean) => {
+          const req = agent.post(pathFor(route.path, which));
+          return (withToken ? req.set(bearer(token)) : req).field('label', `token-${which}-${withToken}`).attach('archive', demoZip(), 'release.zip');
+        };
+        const own = await send(request(app), 'own', true);
+        expect(own.status, JSON.stringify(own.body)).toBe(202);
+        expect((await send(request(app), 'sibling', true)).status).toBe(403);
+        expect((await send(request(app), 'foreign', true)).status).toBe(404);
+        // A signed-in lead uploads to every repository of the organisation.
+        expect((await send(lead, 'sibling', false)).status).toBe(202);
+      });
+      continue;
+    }
     if (route.token) {
       it(`${label}: reaches the handler for the token's repository, 403 for another of its organisation, 404 for another organisation's`, async () => {
+        const handled = HANDLED_STATUS[label] ?? 200;
         const own = await request(app)[route.method](pathFor(route.path, 'own')).set(bearer(token));
-        expect(own.status, JSON.stringify(own.body)).toBe(200);
+        expect(own.status, JSON.stringify(own.body)).toBe(handled);
         const sibling = await request(app)[route.method](pathFor(route.path, 'sibling')).set(bearer(token));
         expect(sibling.status).toBe(403);
         expect((await request(app)[route.method](pathFor(route.path, 'foreign')).set(bearer(token))).status).toBe(404);
         // The same routes still serve a signed-in lead every repository of the organisation.
-        expect((await lead[route.method](pathFor(route.path, 'sibling'))).status).toBe(200);
+        expect((await lead[route.method](pathFor(route.path, 'sibling'))).status).toBe(handled);
       });
       continue;
     }

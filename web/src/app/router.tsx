@@ -2,7 +2,6 @@ import { Suspense, lazy, type ComponentType } from 'react';
 import { BrowserRouter, Link, Route, Routes } from 'react-router-dom';
 import { SignInRoute } from '@/features/auth/routes/sign-in';
 import { RequireAction, SignedInFrame } from './guards';
-import { PlaceholderRoute } from './routes/placeholder';
 
 /**
  * A page loaded on first visit: each route is its own chunk, so charts (recharts) and the code
@@ -24,6 +23,8 @@ const OverviewRoute = page(() => import('./routes/overview'), 'OverviewRoute');
 const RepositoriesRoute = page(() => import('./routes/repositories'), 'RepositoriesRoute');
 const RepositoryRoute = page(() => import('./routes/repository'), 'RepositoryRoute');
 const SnapshotRoute = page(() => import('./routes/snapshot'), 'SnapshotRoute');
+const TaskRoute = page(() => import('./routes/task'), 'TaskRoute');
+const TasksRoute = page(() => import('./routes/tasks'), 'TasksRoute');
 
 /** Where a page outside the layout waits for its chunk (signed-in pages wait inside the layout). */
 function PageLoading() {
@@ -74,7 +75,8 @@ export function AppRoutes() {
           <Route path="find-copies" element={<FindCopiesRoute />} />
         </Route>
         <Route element={<RequireAction action="tasks.read" />}>
-          <Route path="tasks" element={<PlaceholderRoute title="Tasks" description="Refactor work on clone classes, with owners." />} />
+          <Route path="tasks" element={<TasksRoute />} />
+          <Route path="tasks/:id" element={<TaskRoute />} />
         </Route>
         <Route element={<RequireAction action="apiTokens.manage" />}>
           <Route path="api-tokens" element={<ApiTokensRoute />} />

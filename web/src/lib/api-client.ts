@@ -33,7 +33,9 @@ async function refreshCsrfToken(): Promise<void> {
 
 async function send<T>(method: Method, path: string, body?: unknown, retried = false): Promise<T> {
   const headers: Record<string, string> = { accept: 'application/json' };
-  if (body !== undefined) headers['content-type'] = 'application/json';
+  const form = body instanceof FormData;
+  // A form's content type (multipart, with its boundary) is the browser's to write.
+  if (body !== undefined && !form) headers['content-type'] = 'application/json';
   if (method !== 'GET') {
     if (!csrfToken) await refreshCsrfToken();
     if (csrfToken) headers[CSRF_HEADER] = csrfToken;
@@ -42,7 +44,7 @@ async function send<T>(method: Method, path: string, body?: unknown, retried = f
     method,
     headers,
     credentials: 'same-origin',
-    body: body === undefined ? undefined : JSON.stringify(body),
+    body: body === undefined ? undefined : form ? body : JSON.stringify(body),
   });
   if (res.status === 204) return undefined as T;
   const data = (await res.json().catch(() => null)) as
@@ -69,6 +71,8 @@ async function send<T>(method: Method, path: string, body?: unknown, retried = f
 export const api = {
   get: <T>(path: string) => send<T>('GET', path),
   post: <T>(path: string, body?: unknown) => send<T>('POST', path, body ?? {}),
+  /** multipart/form-data, for uploads: the browser streams the file. */
+  postForm: <T>(path: string, form: FormData) => send<T>('POST', path, form),
   put: <T>(path: string, body?: unknown) => send<T>('PUT', path, body ?? {}),
   patch: <T>(path: string, body?: unknown) => send<T>('PATCH', path, body ?? {}),
   delete: <T>(path: string) => send<T>('DELETE', path),

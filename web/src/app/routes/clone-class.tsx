@@ -11,6 +11,7 @@ import { StatusBadge } from '@/features/clone-classes/components/status-badge';
 import { ClassWaiver } from '@/features/clone-classes/components/class-waiver';
 import { useSession } from '@/features/auth/api/get-session';
 import { useRepository } from '@/features/repositories/api/get-repository';
+import { ClassTask, suggestTaskTitle } from '@/features/tasks/components/class-task';
 
 function CloneClassPage({ detail }: { detail: CloneClassDetailDTO }) {
   const repository = useRepository(detail.repositoryId);
@@ -46,6 +47,7 @@ function CloneClassPage({ detail }: { detail: CloneClassDetailDTO }) {
           }
         />
         <ClassWaiver detail={detail} mayWaive={role !== undefined && can(role, 'cloneClasses.waive')} />
+        <ClassTask cloneClassId={detail.id} lineageId={detail.lineageId} suggestedTitle={suggestTaskTitle(detail)} mayCreate={role !== undefined && can(role, 'tasks.create')} />
       </div>
       <ClassMembers detail={detail} />
       {detail.pairs.length > 1 ? (

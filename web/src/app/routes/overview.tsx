@@ -11,6 +11,7 @@ import { useRepositories } from '@/features/repositories/api/get-repositories';
 import { repositoryMetricsQueryOptions } from '@/features/repositories/api/get-repository-metrics';
 import { OverBudgetMarker } from '@/features/repositories/components/budget-marker';
 import { TrendChartView } from '@/features/repositories/components/trend-chart';
+import { MyOpenTasks } from '@/features/tasks/components/my-open-tasks';
 
 interface Figure {
   label: string;
@@ -182,9 +183,7 @@ export function OverviewRoute() {
           <Panel title="Over budget">
             {repositories.data ? <OverBudgetList repositories={list} /> : <p className="text-sm text-muted">Loading…</p>}
           </Panel>
-          <Panel title="Your open tasks">
-            <AwaitingData>Refactor tasks assigned to you will be listed here once tasks can be assigned.</AwaitingData>
-          </Panel>
+          <MyOpenTasks />
         </div>
         <Panel title="Latest snapshots">
           {repositories.data ? <LatestLoads repositories={list} /> : <p className="text-sm text-muted">Loading…</p>}

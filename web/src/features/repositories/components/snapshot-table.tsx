@@ -8,8 +8,9 @@ import { useRepositorySnapshots } from '@/features/repositories/api/get-reposito
 const STATUS_TONES: Record<SnapshotDTO['status'], string> = {
   ready: 'text-accent',
   running: 'text-amber-strong',
-  pending: 'text-muted',
+  queued: 'text-muted',
   failed: 'text-danger',
+  cancelled: 'text-muted',
 };
 
 /** A repository's snapshots, newest first; ready ones link to their clone classes. */
@@ -17,7 +18,7 @@ export function SnapshotTable({ repositoryId }: { repositoryId: number }) {
   const snapshots = useRepositorySnapshots(repositoryId);
   if (!snapshots.data) return <QueryState query={snapshots} what="snapshots" />;
   if (snapshots.data.snapshots.length === 0) {
-    return <p className="text-sm text-muted">No snapshots yet. Load a release with the command line or from CI.</p>;
+    return <p className="text-sm text-muted">No snapshots yet. Upload a release, or load one with the command line or from CI.</p>;
   }
   return (
     <table className="w-full text-sm" aria-label="Snapshots">
