@@ -49,9 +49,9 @@ export async function locateSets(tx: Transaction | undefined, organisationId: st
   return select<CopyLocation>(
     tx,
     `with latest as (
-       select distinct on (s.repository_id) s.id, s.repository_id, s.label from snapshots s
-         join repositories r on r.id = s.repository_id
-        where s.status = 'ready' and r.organisation_id = $2 order by s.repository_id, s.id desc)
+       select s.id, s.repository_id, s.label from latest_ready_snapshots l
+         join snapshots s on s.id = l.snapshot_id join repositories r on r.id = l.repository_id
+        where r.organisation_id = $2)
      select f.set_id as "setId", r.id as "repositoryId", r.name as "repositoryName", l.id as "snapshotId",
             l.label as "snapshotLabel", sf.path, f.name, f.start_line as "startLine", f.end_line as "endLine"
        from fragments f

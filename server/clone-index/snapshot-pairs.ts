@@ -124,11 +124,10 @@ export async function clonePairsAcross(
 ): Promise<CrossPair[]> {
   const others = await select<{ id: number; label: string; repositoryId: number; repositoryName: string }>(
     tx,
-    `select distinct on (s.repository_id) s.id, s.label, s.repository_id as "repositoryId", r.name as "repositoryName"
-       from snapshots s join repositories r on r.id = s.repository_id
-      where s.status = 'ready' and s.repository_id <> $1
-        and r.organisation_id = (select organisation_id from repositories where id = $1)
-      order by s.repository_id, s.id desc`,
+    `select s.id, s.label, s.repository_id as "repositoryId", r.name as "repositoryName"
+       from latest_ready_snapshots l join snapshots s on s.id = l.snapshot_id join repositories r on r.id = l.repository_id
+      where l.repository_id <> $1 and r.organisation_id = (select organisation_id from repositories where id = $1)
+      order by l.repository_id`,
     [repositoryId],
   );
   const result: CrossPair[] = [];

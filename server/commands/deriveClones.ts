@@ -5,6 +5,7 @@ import { repositoryThreshold, type RepositorySettings } from '../clone-index/opt
 import { clonePairsAcross, clonePairsWithin, snapshotFragments, type SnapshotFragment } from '../clone-index/snapshot-pairs';
 import { cloneClasses, clonedTokens } from '../matching/classes';
 import { classLineageIds, classMemberIds } from '../queries/classes';
+import { storeCrossPairs } from '../queries/cross-classes';
 import { insertSnapshotMetrics, previousReadySnapshot } from '../queries/snapshots';
 import { activeWaivers, endWaivers } from '../queries/waivers';
 import { storeClasses } from '../queries/write-classes';
@@ -22,8 +23,8 @@ export interface DerivedClones {
 /**
  * The step of a load after its files are stored: the snapshot's clone pairs (from stored set
  * pairs, at the repository's threshold), its classes compared with the previous ready snapshot's
- * and linked to their lineages (server/clone-index/lineage.ts), its clone ratio and figures, all
- * written in the load's transaction.
+ * and linked to their lineages (server/clone-index/lineage.ts), its clone ratio and figures, and
+ * its pairs with the other repositories' latest snapshots, all written in the load's transaction.
  */
 export async function deriveClones(tx: Transaction, snapshotId: number, repository: RepositorySettings & { id: number }): Promise<DerivedClones> {
   const t = repositoryThreshold(repository);
@@ -62,6 +63,19 @@ export async function deriveClones(tx: Transaction, snapshotId: number, reposito
       previousClassId: comparison.classes[c].previous >= 0 ? previous.classIds[comparison.classes[c].previous] : null,
       lineageId: lineages[c] === 'new' ? null : lineages[c],
       members: members.map((i, m) => ({ snapshotFileId: fragments[i].snapshotFileId, fragmentId: fragments[i].fragmentId, codeChanged: comparison.classes[c].changed[m] })),
+    })),
+  );
+  await storeCrossPairs(
+    tx,
+    cross.map((p) => ({
+      snapshotId,
+      snapshotFileId: fragments[p.a].snapshotFileId,
+      fragmentId: fragments[p.a].fragmentId,
+      otherSnapshotId: p.other.snapshotId,
+      otherSnapshotFileId: p.other.snapshotFileId,
+      otherFragmentId: p.other.fragmentId,
+      similarity: p.similarity,
+      cloneType: p.type,
     })),
   );
   const [type1Pairs, type2Pairs, type3Pairs] = [1, 2, 3].map((type) => pairs.filter((p) => p.type === type).length);

@@ -8,8 +8,10 @@ import { db } from '../db/connection';
 import { ConflictError, fromDatabaseError } from '../errors';
 import type { SnapshotSettings } from '../models/Snapshot';
 import { analysisOutcomes, findAnalyses, lockContents, storeAnalyses, storeContents, storeSnapshotFiles, type SnapshotFileRow } from '../queries/files';
-import { findSnapshotByLabel, insertRunningSnapshot, lockLoadingSnapshot, lockRepositoryLoads, markSnapshotFailed, markSnapshotReady } from '../queries/snapshots';
+import { findSnapshotByLabel, insertRunningSnapshot, lockLoadingSnapshot, lockOrganisationLoads, markSnapshotFailed, markSnapshotReady } from '../queries/snapshots';
 import { queueLoadNotices } from '../mail/load-notices';
+import { organisationOfRepository } from '../queries/cross-classes';
+import { rebuildCrossClasses } from './crossClasses';
 import { deriveClones } from './deriveClones';
 import { settleTasks } from './settleTasks';
 
@@ -203,7 +205,9 @@ async function loadRound(
   progress('deriving', 0, 0);
   return db().transaction(async (tx) => {
     await lockContents(tx, 'load');
-    await lockRepositoryLoads(tx, input.repository.id);
+    const organisationId = await organisationOfRepository(tx, input.repository.id);
+    if (organisationId === null) throw new LoadStoppedError('gone');
+    await lockOrganisationLoads(tx, organisationId);
     const row = await lockLoadingSnapshot(tx, snapshotId);
     if (!row) throw new LoadStoppedError('gone');
     if (row.status === 'cancelled') throw new LoadStoppedError('cancelled');
@@ -240,6 +244,8 @@ async function loadRound(
       newSetCount: indexed.newSetCount,
     };
     await markSnapshotReady(tx, snapshotId, { ...counts, cloneRatio: derived.cloneRatio, timings });
+    // the organisation's classes across repositories, now that this snapshot is the latest ready one
+    await rebuildCrossClasses(tx, organisationId);
     await queueLoadNotices(tx, snapshotId);
     return { snapshotId, ...counts, pairCount: derived.pairCount, classCount: derived.classCount, cloneRatio: derived.cloneRatio, timings };
   });

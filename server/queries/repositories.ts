@@ -41,11 +41,11 @@ export async function latestReadySnapshots(repositoryIds: number[]): Promise<Map
   };
   const rows = await select<Row>(
     undefined,
-    `select distinct on (s.repository_id) s.repository_id as "repositoryId", s.id, s.label, s.clone_ratio as "cloneRatio",
+    `select l.repository_id as "repositoryId", s.id, s.label, s.clone_ratio as "cloneRatio",
             m.fragment_tokens as "fragmentTokens", m.cloned_tokens as "clonedTokens",
             m.unwaived_cloned_tokens as "unwaivedClonedTokens", s.created_at as "createdAt"
-       from snapshots s left join snapshot_metrics m on m.snapshot_id = s.id
-      where s.status = 'ready' and s.repository_id = any($1::int[]) order by s.repository_id, s.id desc`,
+       from latest_ready_snapshots l join snapshots s on s.id = l.snapshot_id left join snapshot_metrics m on m.snapshot_id = s.id
+      where l.repository_id = any($1::int[])`,
     [repositoryIds],
   );
   // bigint columns arrive as text

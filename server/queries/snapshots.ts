@@ -115,16 +115,17 @@ export async function writeLoadProgress(snapshotId: number, attempt: number, pro
   return row.attempt !== attempt ? 'superseded' : 'cancelled';
 }
 
-/** First key of the per-repository advisory lock (the second is the repository id). */
-const REPOSITORY_LOAD_LOCK = 0x646f;
+/** First key of the per-organisation advisory lock (the second is a hash of the organisation id). */
+const ORGANISATION_LOAD_LOCK = 0x646f;
 
 /**
- * Serialises the last step of loads of one repository (each compares with the snapshot ready
- * before it and continues its class lineages, so two must not do it at once); loads of other
- * repositories are not held up.
+ * Serialises the last step of an organisation's loads: each compares with the snapshot ready before
+ * it, continues its class lineages, and stores its pairs with the other repositories' latest
+ * snapshots, so two loads of one organisation must not do it at once (each would miss the other's
+ * new snapshot). Analysis and indexing, most of a load, still run side by side.
  */
-export function lockRepositoryLoads(tx: Transaction, repositoryId: number): Promise<void> {
-  return execute(tx, 'select pg_advisory_xact_lock($1::int, $2::int)', [REPOSITORY_LOAD_LOCK, repositoryId]);
+export function lockOrganisationLoads(tx: Transaction, organisationId: string): Promise<void> {
+  return execute(tx, 'select pg_advisory_xact_lock($1::int, hashtext($2))', [ORGANISATION_LOAD_LOCK, organisationId]);
 }
 
 /** Where a load's row stands when it is about to finish: locked in `tx` until the end of the load's last transaction. */

@@ -1,15 +1,41 @@
+import { organisationClassQuerySchema, type OrganisationClassPageDTO } from '../../shared/api/clone-classes';
 import { idParamsSchema, waiveClassSchema, type WaiverCreatedDTO } from '../../shared/api/snapshots';
 import { currentUser } from '../auth/current-user';
 import { liftLineageWaiver, waiveLineage } from '../commands/waivers';
 import { found } from '../errors';
 import { authorize } from '../policies';
+import { presentOrganisationClass } from '../presenters/clone-classes';
 import { presentCloneClassDetail, presentWaiver } from '../presenters/snapshot';
 import { classMembers, findClass } from '../queries/classes';
+import { listOrganisationClasses, organisationClassChoices } from '../queries/organisation-classes';
 import { defineRoutes } from './define';
 import { parse } from './validate';
 
-/** /api/clone-classes: one class with its members' code, for the side-by-side view; a lead's waiver of its lineage. */
+/**
+ * /api/clone-classes: the organisation's classes (latest snapshots, within and across repositories),
+ * one class with its members' code, for the side-by-side view; a lead's waiver of its lineage.
+ */
 export const cloneClassRoutes = defineRoutes('/clone-classes', [
+  {
+    method: 'get',
+    path: '/',
+    guard: 'cloneClasses.read',
+    handler: async (req, res) => {
+      const query = parse(organisationClassQuerySchema, req.query);
+      const actor = currentUser(req);
+      authorize(actor, 'cloneClasses.read', { organisationId: actor.organisationId });
+      const { rows, total, waivedCount } = await listOrganisationClasses(actor.organisationId, query);
+      const answer: OrganisationClassPageDTO = {
+        classes: rows.map(presentOrganisationClass),
+        total,
+        waivedCount,
+        page: query.page,
+        pageSize: query.pageSize,
+        ...(await organisationClassChoices(actor.organisationId)),
+      };
+      res.json(answer);
+    },
+  },
   {
     method: 'get',
     path: '/:id',

@@ -8,6 +8,8 @@ import { invitationRoutes } from './invitations';
 import { sessionRoutes } from './session';
 import { userRoutes } from './users';
 import { cloneClassRoutes } from './clone-classes';
+import { crossClassRoutes } from './cross-classes';
+import { organisationRoutes } from './organisation';
 import { findCopiesRoutes } from './find-copies';
 import { repositoryRoutes } from './repositories';
 import { snapshotRoutes } from './snapshots';
@@ -26,6 +28,8 @@ export const ROUTE_GROUPS: RouteGroup[] = [
   repositoryRoutes,
   snapshotRoutes,
   cloneClassRoutes,
+  crossClassRoutes,
+  organisationRoutes,
   findCopiesRoutes,
   outboxRoutes,
   apiTokenRoutes,

@@ -1,5 +1,13 @@
 import fs from 'node:fs/promises';
-import { createRepositorySchema, repositoryParamsSchema, updateRepositorySchema, type RepositoryListDTO, type RepositoryMetricsDTO } from '../../shared/api/repositories';
+import {
+  CLONE_MAP_MAX_NODES,
+  createRepositorySchema,
+  repositoryParamsSchema,
+  updateRepositorySchema,
+  type CloneMapDTO,
+  type RepositoryListDTO,
+  type RepositoryMetricsDTO,
+} from '../../shared/api/repositories';
 import { uploadSnapshotSchema, type SnapshotAnswerDTO, type SnapshotListDTO } from '../../shared/api/snapshots';
 import { currentUser } from '../auth/current-user';
 import { createRepository, updateRepository } from '../commands/createRepository';
@@ -11,7 +19,9 @@ import { authorize } from '../policies';
 import { presentRepository, presentTrendPoint } from '../presenters/repository';
 import { presentSnapshot } from '../presenters/snapshot';
 import { findRepository, latestReadySnapshot, latestReadySnapshots, listRepositories, repositoryTrend } from '../queries/repositories';
+import { fileFigures } from '../queries/clone-map';
 import { listSnapshots, snapshotMetric } from '../queries/snapshots';
+import { buildCloneMap } from '../reports/clone-map';
 import { defineRoutes } from './define';
 import { receiveArchive } from './receive-archive';
 import { parse } from './validate';
@@ -129,6 +139,26 @@ export const repositoryRoutes = defineRoutes('/repositories', [
         repositoryId: id,
         cloneBudget: repository.cloneBudget === null ? null : Number(repository.cloneBudget),
         points: (await repositoryTrend(id)).map(presentTrendPoint),
+      };
+      res.json(answer);
+    },
+  },
+  {
+    method: 'get',
+    path: '/:id/clone-map',
+    guard: 'snapshots.read',
+    token: 'read',
+    handler: async (req, res) => {
+      const { id } = parse(repositoryParamsSchema, req.params);
+      const repository = found(await findRepository(currentUser(req).organisationId, id), 'Repository');
+      authorize(currentUser(req), 'snapshots.read', repository);
+      const latest = await latestReadySnapshot(id);
+      const map = latest ? buildCloneMap(await fileFigures(latest.id), CLONE_MAP_MAX_NODES) : null;
+      const answer: CloneMapDTO = {
+        repositoryId: id,
+        snapshot: latest && { id: latest.id, label: latest.label },
+        root: map?.root ?? null,
+        complete: map?.complete ?? true,
       };
       res.json(answer);
     },

@@ -97,3 +97,27 @@ export interface RepositoryMetricsDTO {
   cloneBudget: number | null;
   points: TrendPointDTO[];
 }
+
+/** Most nodes (directories and files) a clone map holds: a deeper tree loses its deepest levels. */
+export const CLONE_MAP_MAX_NODES = 400;
+
+/** A directory (path ending with "/") or file of the clone map. */
+export interface CloneMapNodeDTO {
+  name: string;
+  path: string;
+  /** tokens inside fragments, each counted once */
+  tokens: number;
+  /** of those, tokens in at least one clone pair */
+  clonedTokens: number;
+  children?: CloneMapNodeDTO[];
+}
+
+/** GET /api/repositories/:id/clone-map: the latest ready snapshot's directory tree. */
+export interface CloneMapDTO {
+  repositoryId: number;
+  /** null until a snapshot is ready */
+  snapshot: { id: number; label: string } | null;
+  root: CloneMapNodeDTO | null;
+  /** false when the deepest levels were left out to stay within CLONE_MAP_MAX_NODES */
+  complete: boolean;
+}

@@ -197,6 +197,8 @@ export interface CloneClassMemberDTO {
   changed: boolean;
   /** the fragment's source lines (startLine..endLine) */
   code: string;
+  /** set on the members of a class that spans repositories: the repository the member is in */
+  repositoryName?: string;
 }
 
 /** A pair inside a class, by member index. */

@@ -239,7 +239,7 @@ describe('accessibility of the main pages (axe-core, serious and critical)', () 
 
   it('finds no serious or critical violation on any main page, each opened as a role that uses it', async () => {
     const pages: Array<{ name: string; user: User; url: string; ready: (page: Page) => Promise<unknown> }> = [
-      { name: 'overview', user: team.viewer, url: '/', ready: (p) => p.locator('figure[aria-label="Clone ratio by release"] .recharts-line-dot').first().waitFor() },
+      { name: 'overview', user: team.viewer, url: '/', ready: (p) => p.locator('figure[aria-label="Clone ratio across all repositories"] .recharts-line-dot').first().waitFor() },
       { name: 'repositories', user: team.lead, url: '/repositories', ready: (p) => p.getByRole('row', { name: /freight-platform/ }).waitFor() },
       { name: 'repository', user: team.lead, url: `/repositories/${repository.id}`, ready: (p) => p.getByRole('button', { name: 'Save settings' }).waitFor() },
       { name: 'snapshot', user: team.viewer, url: `/snapshots/${loads.v3.snapshotId}`, ready: (p) => p.getByRole('table', { name: 'Clone classes' }).waitFor() },

@@ -63,6 +63,17 @@ describe('the route registry', () => {
     );
   });
 
+  it('declares the organisation-wide review routes behind the read actions every role has', () => {
+    const guards = Object.fromEntries(routes.map((r) => [`${r.method.toUpperCase()} ${r.path}`, r.guard]));
+    expect(guards).toMatchObject({
+      'GET /api/clone-classes': 'cloneClasses.read',
+      'GET /api/cross-classes/:id': 'cloneClasses.read',
+      'GET /api/organisation/loads': 'snapshots.read',
+      'GET /api/organisation/trend': 'snapshots.read',
+      'GET /api/repositories/:id/clone-map': 'snapshots.read',
+    });
+  });
+
   it('keeps public routes to the ones anybody needs before signing in', () => {
     const publicRoutes = routes.filter((r) => r.guard === 'public').map((r) => `${r.method.toUpperCase()} ${r.path}`);
     expect(publicRoutes.sort()).toEqual(

@@ -259,6 +259,7 @@ describe('every declared route × an API token', () => {
         'GET /api/repositories/:id read',
         'GET /api/repositories/:id/snapshots read',
         'GET /api/repositories/:id/metrics read',
+        'GET /api/repositories/:id/clone-map read',
         'GET /api/snapshots/:id read',
         'GET /api/snapshots/:id/classes read',
         'GET /api/snapshots/:id/comparison read',

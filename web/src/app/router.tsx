@@ -17,6 +17,7 @@ const AdminRoute = page(() => import('./routes/admin'), 'AdminRoute');
 const ApiTokensRoute = page(() => import('./routes/api-tokens'), 'ApiTokensRoute');
 const CloneClassRoute = page(() => import('./routes/clone-class'), 'CloneClassRoute');
 const CloneClassesRoute = page(() => import('./routes/clone-classes'), 'CloneClassesRoute');
+const CrossClassRoute = page(() => import('./routes/cross-class'), 'CrossClassRoute');
 const FindCopiesRoute = page(() => import('./routes/find-copies'), 'FindCopiesRoute');
 const OutboxRoute = page(() => import('@/features/outbox/routes/outbox'), 'OutboxRoute');
 const OverviewRoute = page(() => import('./routes/overview'), 'OverviewRoute');
@@ -69,6 +70,7 @@ export function AppRoutes() {
         <Route element={<RequireAction action="cloneClasses.read" />}>
           <Route path="clone-classes" element={<CloneClassesRoute />} />
           <Route path="clone-classes/:id" element={<CloneClassRoute />} />
+          <Route path="clone-classes/across/:id" element={<CrossClassRoute />} />
           <Route path="snapshots/:id" element={<SnapshotRoute />} />
         </Route>
         <Route element={<RequireAction action="findCopies.use" />}>

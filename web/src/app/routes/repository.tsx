@@ -14,13 +14,16 @@ import { OverBudgetMarker } from '@/features/repositories/components/budget-mark
 import { DeleteRepository } from '@/features/repositories/components/delete-repository';
 import { RepositorySettingsForm } from '@/features/repositories/components/repository-settings-form';
 import { SnapshotTable } from '@/features/repositories/components/snapshot-table';
+import { CloneMap } from '@/features/repositories/components/clone-map';
+import { ReleaseChanges } from '@/features/repositories/components/release-changes';
 import { TrendChart } from '@/features/repositories/components/trend-chart';
 import { LoadProgress } from '@/features/uploads/components/load-progress';
 import { UploadForm } from '@/features/uploads/components/upload-form';
 
 /**
- * /repositories/:id: the trend, the snapshots, loads in progress, and (for engineers and above)
- * "Upload a release" and git releases; (for leads) settings and delete.
+ * /repositories/:id: the trend, the classes by release, the clone map, the snapshots, loads in
+ * progress, and (for engineers and above) "Upload a release" and git releases; (for leads)
+ * settings and delete.
  */
 export function RepositoryRoute() {
   const id = Number(useParams().id);
@@ -47,7 +50,7 @@ export function RepositoryRoute() {
   const loads = [...new Set([...followed, ...active])].sort((a, b) => b - a);
   const side = mayUpload || mayUpdate || mayDelete;
   return (
-    <div className="max-w-6xl">
+    <div className="max-w-[100rem]">
       <div className="mb-1 text-xs text-muted">
         <Link to="/repositories" className="hover:underline">
           Repositories
@@ -69,48 +72,66 @@ export function RepositoryRoute() {
         }
       />
       {r.description ? <p className="-mt-2 mb-4 text-sm">{r.description}</p> : null}
-      <div className={side ? 'grid items-start gap-4 xl:grid-cols-[1fr_320px]' : ''}>
-        <div className="min-w-0 space-y-4">
-          {loads.length > 0 ? (
-            <Panel title="Loads">
-              <div className="space-y-3">
-                {loads.map((snapshotId) => (
-                  <LoadProgress key={snapshotId} snapshotId={snapshotId} mayCancel={mayCancel} />
-                ))}
-              </div>
-            </Panel>
-          ) : null}
-          <Panel title="Clone ratio by release">
-            <TrendChart repositoryId={id} />
+      <div className="space-y-4">
+        {loads.length > 0 ? (
+          <Panel title="Loads">
+            <div className="space-y-3">
+              {loads.map((snapshotId) => (
+                <LoadProgress key={snapshotId} snapshotId={snapshotId} mayCancel={mayCancel} />
+              ))}
+            </div>
           </Panel>
-          <Panel title="Snapshots">
-            <SnapshotTable repositoryId={id} />
+        ) : null}
+        <div className="grid items-start gap-4 xl:grid-cols-2">
+          <div className="min-w-0 space-y-4">
+            <Panel title="Clone ratio by release">
+              <TrendChart repositoryId={id} />
+            </Panel>
+            <Panel title="Classes by release">
+              <ReleaseChanges repositoryId={id} />
+            </Panel>
+          </div>
+          <Panel
+            title="Clone map"
+            className="min-w-0"
+            actions={
+              <Link to={`/clone-classes?repository=${id}`} className="text-xs text-accent-strong hover:underline">
+                All its classes
+              </Link>
+            }
+          >
+            <CloneMap repositoryId={id} height={340} />
           </Panel>
         </div>
-        {side ? (
-          <div className="space-y-4">
-            {mayUpload ? (
-              <Panel title="Upload a release">
-                <UploadForm repositoryId={id} onQueued={(snapshotId) => setFollowed((ids) => (ids.includes(snapshotId) ? ids : [...ids, snapshotId]))} />
-              </Panel>
-            ) : null}
-            {mayUpload ? (
-              <Panel title="Git releases">
-                <GitReleasesPanel repositoryId={id} mayLink={mayUpdate} />
-              </Panel>
-            ) : null}
-            {mayUpdate ? (
-              <Panel title="Settings">
-                <RepositorySettingsForm repository={r} />
-              </Panel>
-            ) : null}
-            {mayDelete ? (
-              <Panel title="Delete">
-                <DeleteRepository repository={r} onDeleted={() => navigate('/repositories', { replace: true })} />
-              </Panel>
-            ) : null}
-          </div>
-        ) : null}
+        <div className={side ? 'grid items-start gap-4 xl:grid-cols-[1fr_360px]' : ''}>
+          <Panel title="Snapshots" className="min-w-0">
+            <SnapshotTable repositoryId={id} />
+          </Panel>
+          {side ? (
+            <div className="space-y-4">
+              {mayUpload ? (
+                <Panel title="Upload a release">
+                  <UploadForm repositoryId={id} onQueued={(snapshotId) => setFollowed((ids) => (ids.includes(snapshotId) ? ids : [...ids, snapshotId]))} />
+                </Panel>
+              ) : null}
+              {mayUpload ? (
+                <Panel title="Git releases">
+                  <GitReleasesPanel repositoryId={id} mayLink={mayUpdate} />
+                </Panel>
+              ) : null}
+              {mayUpdate ? (
+                <Panel title="Settings">
+                  <RepositorySettingsForm repository={r} />
+                </Panel>
+              ) : null}
+              {mayDelete ? (
+                <Panel title="Delete">
+                  <DeleteRepository repository={r} onDeleted={() => navigate('/repositories', { replace: true })} />
+                </Panel>
+              ) : null}
+            </div>
+          ) : null}
+        </div>
       </div>
     </div>
   );

@@ -24,14 +24,22 @@ function SnapshotFigures({ snapshot }: { snapshot: SnapshotDTO }) {
     ['fragments', String(snapshot.fragmentCount)],
     ['clone pairs', m ? String(m.pairCount) : '—'],
     ['classes', m ? String(m.classCount) : '—'],
-    ['across repositories', m ? String(m.crossPairCount) : '—'],
+    ['pairs across repositories', m ? String(m.crossPairCount) : '—'],
   ];
   return (
     <dl className="flex flex-wrap gap-x-6 gap-y-1 text-xs">
       {figures.map(([label, value]) => (
         <div key={label} className="flex items-baseline gap-1.5">
           <dt className="text-muted">{label}</dt>
-          <dd className="font-mono text-sm tabular-nums">{value}</dd>
+          <dd className="font-mono text-sm tabular-nums">
+            {label === 'pairs across repositories' && m && m.crossPairCount > 0 ? (
+              <Link to={`/clone-classes?repository=${snapshot.repositoryId}&scope=across`} className="text-accent-strong underline underline-offset-2" title="The classes whose copies span repositories">
+                {value}
+              </Link>
+            ) : (
+              value
+            )}
+          </dd>
         </div>
       ))}
     </dl>

@@ -2,8 +2,12 @@ import { useState } from 'react';
 import type { CloneClassDetailDTO, CloneClassMemberDTO, CloneClassPairDTO } from '@shared/api/snapshots';
 import { SelectField } from '@/components/field';
 import { formatLocation, formatSimilarity } from '@/lib/format';
+import { memberPlace } from '@/features/clone-classes/lib/member-place';
 import { PairView } from './pair-view';
 import { SimilarityMatrix } from './similarity-matrix';
+
+/** What the views of a class's members read: a class of one repository, or one that spans repositories. */
+type ClassWithMembers = Pick<CloneClassDetailDTO, 'members' | 'pairs' | 'language'>;
 
 const TYPE_NAMES: Record<1 | 2 | 3, string> = {
   1: 'type 1 · identical tokens',
@@ -17,7 +21,7 @@ function pairOf(pairs: CloneClassPairDTO[], a: number, b: number): CloneClassPai
 }
 
 function memberLabel(member: CloneClassMemberDTO): string {
-  return `${member.name} — ${formatLocation(member.path, member.startLine, member.endLine)}`;
+  return `${member.name} — ${formatLocation(memberPlace(member), member.startLine, member.endLine)}`;
 }
 
 /**
@@ -25,7 +29,7 @@ function memberLabel(member: CloneClassMemberDTO): string {
  * Classes with more than two members get a matrix of every pair and a chooser for each side; two
  * members that are only connected through others have no pair of their own, and the view says so.
  */
-export function ClassMembers({ detail }: { detail: CloneClassDetailDTO }) {
+export function ClassMembers({ detail }: { detail: ClassWithMembers }) {
   const { members, pairs } = detail;
   // Start with the most similar pair: the one a reviewer most likely wants to merge first.
   const best = [...pairs].sort((x, y) => y.similarity - x.similarity)[0];
@@ -93,7 +97,7 @@ export function ClassMembers({ detail }: { detail: CloneClassDetailDTO }) {
 }
 
 /** Every pair of the class, most similar first. */
-export function ClassPairs({ detail }: { detail: CloneClassDetailDTO }) {
+export function ClassPairs({ detail }: { detail: ClassWithMembers }) {
   const { members, pairs } = detail;
   return (
     <table className="w-full text-sm" aria-label="Pairs">
@@ -111,10 +115,10 @@ export function ClassPairs({ detail }: { detail: CloneClassDetailDTO }) {
           .map((p) => (
             <tr key={`${p.a}-${p.b}`} className="border-t border-line">
               <td className="py-1.5 pr-3">
-                {members[p.a].name} <span className="text-muted">{members[p.a].path}</span>
+                {members[p.a].name} <span className="text-muted">{memberPlace(members[p.a])}</span>
               </td>
               <td className="py-1.5 pr-3">
-                {members[p.b].name} <span className="text-muted">{members[p.b].path}</span>
+                {members[p.b].name} <span className="text-muted">{memberPlace(members[p.b])}</span>
               </td>
               <td className="py-1.5 pr-3 text-right tabular-nums">{formatSimilarity(p.similarity)}</td>
               <td className="py-1.5 text-right">{p.type}</td>

@@ -4,6 +4,7 @@ import { formatLocation } from '@/lib/format';
 import { useHighlightedLines } from '@/features/clone-classes/hooks/use-highlighted-lines';
 import { alignLines, lineOf, lineStarts } from '@/features/clone-classes/lib/align-lines';
 import { grammarFor } from '@/features/clone-classes/lib/highlight';
+import { memberPlace } from '@/features/clone-classes/lib/member-place';
 import { diffTokens } from '@/features/clone-classes/lib/token-diff';
 import { tokenize } from '@/features/clone-classes/lib/tokenize';
 import { CodeView } from './code-view';
@@ -22,8 +23,8 @@ function MemberHeader({ member }: { member: CloneClassMemberDTO }) {
           </span>
         ) : null}
       </div>
-      <div className="truncate font-mono text-xs text-muted" title={formatLocation(member.path, member.startLine, member.endLine)}>
-        {formatLocation(member.path, member.startLine, member.endLine)}
+      <div className="truncate font-mono text-xs text-muted" title={formatLocation(memberPlace(member), member.startLine, member.endLine)}>
+        {formatLocation(memberPlace(member), member.startLine, member.endLine)}
         <span className="ml-2">
           {member.kind} · {member.tokens} tokens
         </span>
@@ -86,12 +87,12 @@ export function PairView({ left, right, language }: { left: CloneClassMemberDTO;
         {renames.length ? <span className="font-mono">renamed: {renames.join(', ')}</span> : null}
       </div>
       <div className="grid gap-3 lg:grid-cols-2">
-        <article aria-label={`Left: ${left.path}`} className="min-w-0 rounded-sm border border-line bg-panel">
+        <article aria-label={`Left: ${memberPlace(left)}`} className="min-w-0 rounded-sm border border-line bg-panel">
           <MemberHeader member={left} />
           <CodeView
             code={left.code}
             startLine={left.startLine}
-            label={`Code of ${left.name} in ${left.path}`}
+            label={`Code of ${left.name} in ${memberPlace(left)}`}
             themed={leftThemed}
             marks={diff.left}
             rows={leftRows}
@@ -99,12 +100,12 @@ export function PairView({ left, right, language }: { left: CloneClassMemberDTO;
             onScroll={follow(rightPane)}
           />
         </article>
-        <article aria-label={`Right: ${right.path}`} className="min-w-0 rounded-sm border border-line bg-panel">
+        <article aria-label={`Right: ${memberPlace(right)}`} className="min-w-0 rounded-sm border border-line bg-panel">
           <MemberHeader member={right} />
           <CodeView
             code={right.code}
             startLine={right.startLine}
-            label={`Code of ${right.name} in ${right.path}`}
+            label={`Code of ${right.name} in ${memberPlace(right)}`}
             themed={rightThemed}
             marks={diff.right}
             rows={rightRows}

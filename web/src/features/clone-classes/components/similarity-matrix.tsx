@@ -1,6 +1,7 @@
 import clsx from 'clsx';
 import type { CloneClassDetailDTO } from '@shared/api/snapshots';
 import { formatSimilarity } from '@/lib/format';
+import { memberPlace } from '@/features/clone-classes/lib/member-place';
 
 /**
  * Every member against every other: the similarity of the pairs the class holds, and a dash for
@@ -11,7 +12,7 @@ export function SimilarityMatrix({
   selected,
   onOpen,
 }: {
-  detail: CloneClassDetailDTO;
+  detail: Pick<CloneClassDetailDTO, 'members' | 'pairs'>;
   selected: [number, number];
   onOpen: (a: number, b: number) => void;
 }) {
@@ -29,7 +30,7 @@ export function SimilarityMatrix({
           <tr>
             <td />
             {members.map((m, i) => (
-              <th key={m.fragmentId} scope="col" className="px-2 pb-1 text-center font-semibold text-muted" title={`${m.name} in ${m.path}`}>
+              <th key={m.fragmentId} scope="col" className="px-2 pb-1 text-center font-semibold text-muted" title={`${m.name} in ${memberPlace(m)}`}>
                 {i + 1}
               </th>
             ))}
@@ -38,13 +39,13 @@ export function SimilarityMatrix({
         <tbody>
           {members.map((row, a) => (
             <tr key={row.fragmentId}>
-              <th scope="row" className="max-w-[22rem] truncate py-0.5 pr-3 text-left font-normal" title={`${row.name} in ${row.path}`}>
-                <span className="text-muted">{a + 1}</span> {row.name} <span className="text-muted">{row.path}</span>
+              <th scope="row" className="max-w-[22rem] truncate py-0.5 pr-3 text-left font-normal" title={`${row.name} in ${memberPlace(row)}`}>
+                <span className="text-muted">{a + 1}</span> {row.name} <span className="text-muted">{memberPlace(row)}</span>
               </th>
               {members.map((col, b) => {
                 if (a === b) return <td key={col.fragmentId} className="border border-line bg-paper" aria-label="same member" />;
                 const value = similarity.get(`${a}:${b}`);
-                const label = `${row.name} (${row.path}) and ${col.name} (${col.path})`;
+                const label = `${row.name} (${memberPlace(row)}) and ${col.name} (${memberPlace(col)})`;
                 return (
                   <td key={col.fragmentId} className="border border-line p-0">
                     <button
