@@ -96,6 +96,11 @@ export function loadConfig() {
     publicUrl: process.env.PUBLIC_URL ?? `http://127.0.0.1:${intFromEnv('PORT', 3030, { allowZero: true })}`,
     mailFrom: process.env.MAIL_FROM ?? 'Doublet <doublet@localhost>',
     secureCookies: process.env.SECURE_COOKIES === 'true',
+    /**
+     * Memory the index's in-memory mirror may take (server/clone-index/mirror.ts), in MiB; past it,
+     * loads probe through PostgreSQL alone. 0 turns the mirror off.
+     */
+    indexMemoryMb: intFromEnv('DOUBLET_INDEX_MEMORY_MB', 1024, { allowZero: true }),
     /** Limits on uploaded archives and git trees, and the git cache (README, "Limits of uploads"). */
     ingest: {
       maxArchiveBytes: intFromEnv('DOUBLET_MAX_ARCHIVE_BYTES', 512 * 1024 * 1024),

@@ -13,10 +13,13 @@ import { DEFAULT_REPOSITORY_SETTINGS } from '../../shared/constants';
 import { parseThreshold } from '../matching/threshold';
 import { formatBytes, formatCount, formatMs } from './format';
 import { Collection, mix, random } from './synthetic';
+import { compareTrees } from './trees';
 
 /**
- * `npm run bench:index [-- --sizes 200000,1000000 --keep --seed 7 --queries 300 --time-limit 1140]`: the prefix index
- * in PostgreSQL on synthetic shingle sets, printed as Markdown. Not a test: it measures, it does not judge.
+ * `npm run bench:index [-- --sizes 200000,1000000 --keep --seed 7 --queries 300 --time-limit 1140 --runs 3 --trees-only --skip-trees]`:
+ * first loading a release through PostgreSQL against the in-memory scan of the same tree, on two
+ * real trees (trees.ts; `--trees-only` stops there, `--skip-trees` leaves it out), then the prefix
+ * index in PostgreSQL on synthetic shingle sets, printed as Markdown. Not a test: it measures, it does not judge.
  *
  * It works in a database of its own (`doublet_bench` on the local cluster, created fresh and dropped
  * at the end unless `--keep`), never in the development database. Stages are cumulative: the index
@@ -89,7 +92,7 @@ async function loadRange(collection: Collection, from: number, to: number, deadl
 
 interface ProbeFigures {
   newSets: number;
-  /** addSets' breakdown: dictionary, prefixes (store side), hits, load, verify (probe side) */
+  /** addSets' breakdown: dictionary, prefixes (store side), mirror, memory or hits, load, verify (probe side) */
   parts: Record<string, number>;
   storeMs: number;
   probeMs: number;
@@ -108,6 +111,8 @@ async function probeBatch(collection: Collection, indexed: number, salt: number)
       parts: {
         dictionary: result.timings.dictionary,
         prefixes: result.timings.prefixes,
+        mirror: result.timings.mirror,
+        memory: result.timings.memory,
         hits: result.timings.hits,
         load: result.timings.load,
         verify: result.timings.verify,
@@ -256,8 +261,17 @@ async function main() {
       seed: { type: 'string', default: '7' },
       queries: { type: 'string', default: '300' },
       'time-limit': { type: 'string', default: '1140' },
+      'trees-only': { type: 'boolean', default: false },
+      'skip-trees': { type: 'boolean', default: false },
+      runs: { type: 'string', default: '3' },
     },
   });
+  if (!values['skip-trees']) {
+    const runs = Number(values.runs);
+    if (!Number.isInteger(runs) || runs < 1) throw new Error(`--runs must be a positive integer, got "${values.runs}"`);
+    process.stdout.write(`${await compareTrees(runs)}\n\n`);
+    if (values['trees-only']) return;
+  }
   const sizes = values.sizes ? values.sizes.split(',').map((s) => Number(s.trim())) : DEFAULT_SIZES;
   if (sizes.some((s, i) => !Number.isInteger(s) || s <= 0 || (i > 0 && s <= sizes[i - 1]))) {
     throw new Error(`--sizes must be increasing positive integers, got "${values.sizes}"`);

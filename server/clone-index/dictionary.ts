@@ -1,5 +1,5 @@
 import type { Transaction } from 'sequelize';
-import { chunks, execute, select } from './sql';
+import { chunks, copyRows, execute, parseIntArray, select } from './sql';
 
 const LOOKUP_CHUNK = 50_000;
 
@@ -13,18 +13,16 @@ export async function resolveShingles(
   tx: Transaction,
   counts: Map<string, number>,
 ): Promise<Map<string, number>> {
-  const ranks = await lookupShingles(tx, [...counts.keys()]);
+  const ranks = await lookupManyShingles(tx, [...counts.keys()]);
   const unknown = [...counts.keys()].filter((s) => !ranks.has(s));
   if (unknown.length === 0) return ranks;
   // most frequent first, so it gets the highest of the new ranks; ties by text for determinism
   unknown.sort((a, b) => counts.get(b)! - counts.get(a)! || (a < b ? -1 : a > b ? 1 : 0));
   const newRanks = await ranksBelowKnown(tx, unknown.length);
-  for (const [start, end] of chunks(unknown.length, LOOKUP_CHUNK)) {
-    await execute(tx, 'insert into shingles (text, rank) select * from unnest($1::text[], $2::int[])', [
-      unknown.slice(start, end),
-      newRanks.slice(start, end),
-    ]);
-  }
+  await copyRows(tx, 'shingles', ['text', 'rank'], [
+    { type: 'text', values: unknown },
+    { type: 'int4', values: newRanks },
+  ]);
   unknown.forEach((s, i) => ranks.set(s, newRanks[i]));
   return ranks;
 }
@@ -51,6 +49,36 @@ export async function lookupShingles(tx: Transaction | undefined, texts: string[
     );
     for (const row of rows) ranks.set(row.text, row.rank);
   }
+  return ranks;
+}
+
+/** Lookups of more shingles than this go through a temporary table. */
+const BULK_LOOKUP = 2_000;
+
+/**
+ * lookupShingles for a load's many shingles: the texts go in by binary COPY with their ordinals,
+ * and the ranks of the known ones come back as two integer arrays. As a text[] parameter each
+ * text would be quoted and escaped into an array literal, then parsed again by PostgreSQL, and
+ * each row returned would cost an object.
+ */
+async function lookupManyShingles(tx: Transaction, texts: string[]): Promise<Map<string, number>> {
+  if (texts.length < BULK_LOOKUP) return lookupShingles(tx, texts);
+  await execute(tx, 'create temp table wanted_shingles (ordinal int, text text) on commit drop');
+  await copyRows(tx, 'wanted_shingles', ['ordinal', 'text'], [
+    { type: 'int4', values: Int32Array.from(texts, (_, i) => i) },
+    { type: 'text', values: texts },
+  ]);
+  const [row] = await select<{ ordinals: string | null; ranks: string | null }>(
+    tx,
+    `select array_agg(w.ordinal)::text as ordinals, array_agg(s.rank)::text as ranks
+       from wanted_shingles w join shingles s on s.text = w.text`,
+  );
+  await execute(tx, 'drop table wanted_shingles');
+  const ranks = new Map<string, number>();
+  if (row.ordinals === null) return ranks;
+  const ordinals = parseIntArray(row.ordinals);
+  const found = parseIntArray(row.ranks!);
+  for (let i = 0; i < ordinals.length; i++) ranks.set(texts[ordinals[i]], found[i]);
   return ranks;
 }
 

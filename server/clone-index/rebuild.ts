@@ -44,6 +44,8 @@ export async function rebuildIndex(): Promise<RebuildResult> {
     );
     await execute(tx, 'update shingles s set rank = m.new_rank + $1 from rank_map m where m.old_rank = s.rank', [offset]);
     await execute(tx, 'update shingles set rank = rank - $1', [offset]);
+    // every process's mirror of the index holds the old ranks: a new epoch tells them to read anew
+    await execute(tx, 'update clone_index_state set epoch = epoch + 1');
     await execute(tx, 'delete from prefix_entries');
     await execute(
       tx,

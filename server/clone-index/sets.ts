@@ -6,9 +6,12 @@ import { createHash } from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import { prefixLength, type Threshold } from '../matching/threshold';
 import { resolveShingles, toRankArray } from './dictionary';
+import type { GrowingIndexMatch } from '../matching/growing-index';
+import { jaccard } from '../matching/similarity';
+import { useMirror, type MirrorSession, type MirrorUse } from './mirror';
 import { indexThreshold } from './options';
 import { probeSets, type ProbeTimings } from './probe';
-import { chunks, execute, intArrayLiteral, lockIndex, select } from './sql';
+import { chunks, copyRows, execute, lockIndex, select } from './sql';
 
 /** Content address of a shingle set: sha-1 of its sorted shingles (unambiguous: JSON). */
 export function setHash(shingles: string[]): string {
@@ -23,14 +26,28 @@ export interface AddSetsResult {
   newSetCount: number;
   newPairCount: number;
   candidates: number;
-  /** milliseconds; probe = hits + load + verify + pair writes; store = dictionary + sets + prefix entries */
-  timings: { store: number; probe: number; hits: number; load: number; verify: number; dictionary: number; prefixes: number };
+  /**
+   * Milliseconds. store = dictionary + sets + prefix entries; probe = the probe + pair writes: in
+   * memory (mirror: bringing the mirror up to date, memory: probing and verifying there), or
+   * through PostgreSQL (hits: the hit queries, load: reading candidate sets, verify).
+   */
+  timings: { store: number; probe: number; mirror: number; memory: number; hits: number; load: number; verify: number; dictionary: number; prefixes: number };
+  /** where the new sets were probed, and why not in memory when they were not */
+  probedIn: 'memory' | 'database';
+  probeReason?: string;
 }
 
 /** Options of addSets. */
 export interface AddSetsOptions {
-  /** how many new sets one probe query carries; results do not depend on it */
+  /** how many new sets one probe query carries (through PostgreSQL); results do not depend on it */
   batchSize?: number;
+  /**
+   * Where new sets are probed: 'auto' (default) in the process's mirror of the index when it is up
+   * to date or cheap to bring up to date, else through PostgreSQL; 'memory' always in the mirror
+   * (unless it is off or over its memory limit); 'database' always through PostgreSQL. Results do
+   * not depend on it.
+   */
+  probe?: 'auto' | 'memory' | 'database';
   /**
    * Called after each probe batch with the new sets probed so far and their number (a load's
    * progress); may throw to stop the load, which rolls the transaction back.
@@ -57,11 +74,18 @@ export async function addSets(
   const fresh = new Map<string, string[]>();
   for (const s of sets) if (!idByHash.has(s.hash) && s.shingles.length > 0) fresh.set(s.hash, s.shingles);
 
+  const mark = performance.now();
+  const use: MirrorUse =
+    options.probe === 'database' || fresh.size === 0 ? { mirror: undefined, reason: options.probe === 'database' ? 'asked' : 'nothing new' } : await useMirror(tx, fresh.size, options.probe ?? 'auto');
+  const mirrorMs = performance.now() - mark;
+
   const storeTimings = { dictionary: 0, prefixes: 0 };
   const newSets = await storeNewSets(tx, fresh, idByHash, storeTimings);
   const stored = performance.now();
   options.onProgress?.(0, newSets.length);
-  const { pairs, candidates, timings } = await probeNewSets(tx, newSets, options.batchSize ?? 1000, options.onProgress);
+  const batchSize = options.batchSize ?? 1000;
+  const probed = use.mirror ? probeInMemory(use.mirror, newSets, batchSize, options.onProgress) : await probeNewSets(tx, newSets, batchSize, options.onProgress);
+  const { pairs, candidates, timings } = probed;
   await writePairs(tx, pairs);
   const emptyIds = await storeEmptySets(tx, sets, idByHash);
   return {
@@ -69,7 +93,9 @@ export async function addSets(
     newSetCount: newSets.length,
     newPairCount: pairs.length,
     candidates,
-    timings: { store: stored - started, probe: performance.now() - stored, ...timings, ...storeTimings },
+    timings: { store: stored - started - mirrorMs, probe: performance.now() - stored + mirrorMs, mirror: mirrorMs, ...timings, ...storeTimings },
+    probedIn: use.mirror ? 'memory' : 'database',
+    probeReason: use.mirror ? undefined : use.reason,
   };
 }
 
@@ -111,7 +137,8 @@ async function storeNewSets(
   fresh: Map<string, string[]>,
   idByHash: Map<string, number>,
   timings: { dictionary: number; prefixes: number },
-) {
+): Promise<NewSet[]> {
+  if (fresh.size === 0) return [];
   let mark = performance.now();
   const documentFrequency = new Map<string, number>();
   for (const shingles of fresh.values()) {
@@ -121,25 +148,21 @@ async function storeNewSets(
   timings.dictionary += performance.now() - mark;
   const hashes = [...fresh.keys()];
   const rankArrays = hashes.map((h) => toRankArray(fresh.get(h)!, ranks));
-  const newSets: NewSet[] = [];
-  for (const [start, end] of chunks(hashes.length, WRITE_CHUNK)) {
-    const rows = await select<{ id: number; hash: string }>(
-      tx,
-      `insert into shingle_sets (hash, size, ranks)
-       select h, s, r::int[] from unnest($1::text[], $2::int[], $3::text[]) as t(h, s, r)
-       returning id, hash`,
-      [
-        hashes.slice(start, end),
-        rankArrays.slice(start, end).map((r) => r.length),
-        rankArrays.slice(start, end).map(intArrayLiteral),
-      ],
-    );
-    const position = new Map(hashes.slice(start, end).map((h, i) => [h, start + i]));
-    for (const row of rows) {
-      idByHash.set(row.hash, row.id);
-      newSets.push({ id: row.id, ranks: rankArrays[position.get(row.hash)!] });
-    }
-  }
+  // Ids drawn as one block, then the rows go in by COPY (which cannot return them). Only loads
+  // holding the index write lock insert sets, so nothing else draws from the sequence meanwhile.
+  const [{ first }] = await select<{ first: number }>(
+    tx,
+    `select (setval(pg_get_serial_sequence('shingle_sets', 'id'), nextval(pg_get_serial_sequence('shingle_sets', 'id')) + $1 - 1) - $1 + 1)::int as first`,
+    [hashes.length],
+  );
+  const newSets: NewSet[] = hashes.map((hash, i) => ({ id: first + i, ranks: rankArrays[i] }));
+  hashes.forEach((hash, i) => idByHash.set(hash, first + i));
+  await copyRows(tx, 'shingle_sets', ['id', 'hash', 'size', 'ranks'], [
+    { type: 'int4', values: newSets.map((s) => s.id) },
+    { type: 'text', values: hashes },
+    { type: 'int4', values: rankArrays.map((r) => r.length) },
+    { type: 'int4[]', values: rankArrays },
+  ]);
   mark = performance.now();
   await writePrefixEntries(tx, newSets, indexThreshold);
   timings.prefixes += performance.now() - mark;
@@ -148,35 +171,28 @@ async function storeNewSets(
 
 /** Writes the probing prefix of each set at threshold t (the shorter indexing prefix would be wrong: sets arrive in any size order). */
 async function writePrefixEntries(tx: Transaction, sets: NewSet[], t: Threshold) {
-  let rank: number[] = [];
-  let setId: number[] = [];
-  let position: number[] = [];
-  let size: number[] = [];
-  const flush = async () => {
-    if (rank.length === 0) return;
-    await execute(
-      tx,
-      // in index order: each page of the (rank, size) index is then touched once per flush, not once per row
-      `insert into prefix_entries (rank, set_id, position, size)
-       select * from unnest($1::int[], $2::int[], $3::int[], $4::int[]) as e(rank, set_id, position, size) order by rank, size`,
-      [rank, setId, position, size],
-    );
-    rank = [];
-    setId = [];
-    position = [];
-    size = [];
-  };
+  let total = 0;
+  for (const s of sets) total += prefixLength(t, s.ranks.length);
+  const rank = new Int32Array(total);
+  const setId = new Int32Array(total);
+  const position = new Int32Array(total);
+  const size = new Int32Array(total);
+  let k = 0;
   for (const s of sets) {
     const length = prefixLength(t, s.ranks.length);
-    for (let i = 0; i < length; i++) {
-      rank.push(s.ranks[i]);
-      setId.push(s.id);
-      position.push(i);
-      size.push(s.ranks.length);
+    for (let i = 0; i < length; i++, k++) {
+      rank[k] = s.ranks[i];
+      setId[k] = s.id;
+      position[k] = i;
+      size[k] = s.ranks.length;
     }
-    if (rank.length >= 200_000) await flush();
   }
-  await flush();
+  await copyRows(tx, 'prefix_entries', ['rank', 'set_id', 'position', 'size'], [
+    { type: 'int4', values: rank },
+    { type: 'int4', values: setId },
+    { type: 'int4', values: position },
+    { type: 'int4', values: size },
+  ]);
 }
 
 interface StoredPair {
@@ -198,10 +214,33 @@ async function writePairs(tx: Transaction, pairs: StoredPair[]) {
   }
 }
 
+/**
+ * Probes the new sets in the mirror: appended in id order, each is probed against every set with
+ * a smaller id (old ones, and new ones before it), so each pair is found once.
+ */
+function probeInMemory(mirror: MirrorSession, newSets: NewSet[], batchSize: number, onProgress?: (done: number, total: number) => void) {
+  const started = performance.now();
+  const sets = [...newSets].sort((a, b) => a.id - b.id);
+  const first = mirror.appendPending(sets);
+  const pairs: StoredPair[] = [];
+  const matches: GrowingIndexMatch[] = [];
+  let candidates = 0;
+  sets.forEach((x, k) => {
+    matches.length = 0;
+    candidates += mirror.index.probe(x.ranks, indexThreshold, first + k, matches);
+    for (const m of matches) {
+      const size = mirror.index.set(m.set).length;
+      pairs.push({ a: mirror.setId(m.set), b: x.id, overlap: m.overlap, similarity: jaccard(m.overlap, x.ranks.length, size) });
+    }
+    if ((k + 1) % batchSize === 0 || k === sets.length - 1) onProgress?.(k + 1, sets.length);
+  });
+  return { pairs, candidates, timings: { memory: performance.now() - started, hits: 0, load: 0, verify: 0 } };
+}
+
 async function probeNewSets(tx: Transaction, newSets: NewSet[], batchSize: number, onProgress?: (done: number, total: number) => void) {
   const pairs = new Map<string, StoredPair>();
   let candidates = 0;
-  const timings: ProbeTimings = { hits: 0, load: 0, verify: 0 };
+  const timings: ProbeTimings & { memory: number } = { memory: 0, hits: 0, load: 0, verify: 0 };
   // The filter is symmetric, so a pair of two new sets is found by both: only the probe with the
   // larger id keeps it, which halves the verification work among new sets.
   const isNew = new Set(newSets.map((s) => s.id));

@@ -1,3 +1,7 @@
+import { Readable } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
+import type pg from 'pg';
+import { from as copyFrom } from 'pg-copy-streams';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '../db/connection';
 
@@ -69,4 +73,105 @@ export function parseIntArray(text: string): Int32Array {
 
 function badElement(text: string, i: number): never {
   throw new Error(`not an integer array literal: unexpected "${text[i]}" at ${i} in "${text.slice(0, 40)}"`);
+}
+
+/** One column of a binary COPY: PostgreSQL type and the values in row order (null for SQL NULL). */
+export type CopyColumn =
+  | { type: 'int4'; values: ArrayLike<number> }
+  | { type: 'float8'; values: ArrayLike<number> }
+  | { type: 'text'; values: readonly (string | null)[] }
+  | { type: 'int4[]'; values: readonly Int32Array[] };
+
+/** Bytes a binary COPY stream is cut into: a few MB keep memory flat and the socket busy. */
+const COPY_CHUNK_BYTES = 4 * 2 ** 20;
+const COPY_HEADER = Buffer.from('PGCOPY\n\xff\r\n\0\0\0\0\0\0\0\0\0', 'latin1');
+const INT4_OID = 23;
+
+/**
+ * Writes rows into a table with COPY … FROM STDIN in PostgreSQL's binary format, on the
+ * transaction's own connection: no SQL text to build or parse, no unnest, about three times faster
+ * than an unnest insert for the index's integer tables (measured: 583k prefix entries). Every
+ * column must have the same number of values.
+ */
+export async function copyRows(tx: Transaction, table: string, columns: string[], data: CopyColumn[]): Promise<void> {
+  const rows = data[0]?.values.length ?? 0;
+  if (data.length !== columns.length || data.some((c) => c.values.length !== rows)) {
+    throw new Error(`copyRows into ${table}: ${columns.length} columns and ${data.length} value lists of unequal lengths`);
+  }
+  if (rows === 0) return;
+  const client = (tx as unknown as { connection: pg.Client }).connection;
+  const stream = client.query(copyFrom(`copy ${table} (${columns.join(', ')}) from stdin (format binary)`));
+  await pipeline(Readable.from(binaryCopyChunks(data, rows)), stream);
+}
+
+function* binaryCopyChunks(data: CopyColumn[], rows: number): Generator<Buffer> {
+  let buffer = Buffer.allocUnsafe(COPY_CHUNK_BYTES);
+  let at = COPY_HEADER.copy(buffer, 0);
+  const room = (bytes: number) => {
+    if (at + bytes <= buffer.length) return undefined;
+    const full = buffer.subarray(0, at);
+    buffer = Buffer.allocUnsafe(Math.max(COPY_CHUNK_BYTES, bytes));
+    at = 0;
+    return full;
+  };
+  for (let r = 0; r < rows; r++) {
+    let bytes = 2;
+    for (const column of data) bytes += 4 + fieldBytes(column, r);
+    const full = room(bytes);
+    if (full) yield full;
+    at = buffer.writeInt16BE(data.length, at);
+    for (const column of data) at = writeField(buffer, at, column, r);
+  }
+  const full = room(2);
+  if (full) yield full;
+  at = buffer.writeInt16BE(-1, at);
+  yield buffer.subarray(0, at);
+}
+
+function fieldBytes(column: CopyColumn, r: number): number {
+  switch (column.type) {
+    case 'int4':
+      return 4;
+    case 'float8':
+      return 8;
+    case 'text': {
+      const value = column.values[r];
+      return value === null ? 0 : Buffer.byteLength(value, 'utf8');
+    }
+    case 'int4[]':
+      return 20 + 8 * column.values[r].length;
+  }
+}
+
+function writeField(buffer: Buffer, at: number, column: CopyColumn, r: number): number {
+  switch (column.type) {
+    case 'int4':
+      at = buffer.writeInt32BE(4, at);
+      return buffer.writeInt32BE(column.values[r], at);
+    case 'float8':
+      at = buffer.writeInt32BE(8, at);
+      return buffer.writeDoubleBE(column.values[r], at);
+    case 'text': {
+      const value = column.values[r];
+      if (value === null) return buffer.writeInt32BE(-1, at);
+      const length = buffer.write(value, at + 4, 'utf8');
+      buffer.writeInt32BE(length, at);
+      return at + 4 + length;
+    }
+    case 'int4[]': {
+      // one dimension, no nulls, int4 elements, lower bound 1
+      const values = column.values[r];
+      at = buffer.writeInt32BE(20 + 8 * values.length, at);
+      at = buffer.writeInt32BE(1, at);
+      at = buffer.writeInt32BE(0, at);
+      at = buffer.writeInt32BE(INT4_OID, at);
+      at = buffer.writeInt32BE(values.length, at);
+      at = buffer.writeInt32BE(1, at);
+      for (let i = 0; i < values.length; i++) {
+        at = buffer.writeInt32BE(4, at);
+        at = buffer.writeInt32BE(values[i], at);
+      }
+      return at;
+    }
+  }
 }

@@ -1,23 +1,36 @@
 /**
  * Writes and reads of what a load stores per file: contents (once per sha-256), analyses (once per
  * content and analyzer options) with their fragments, and a snapshot's file list. Bulk writes are
- * `unnest` batches: one statement per batch, never one per row (see README.md).
+ * binary COPY (texts and fragments) or `unnest` batches: one statement per batch, never one per
+ * row (see README.md).
  */
 import type { Transaction } from 'sequelize';
 import type { FileAnalysis } from '../../analyzers/types';
-import { chunks, execute, select } from '../clone-index/sql';
+import { chunks, copyRows, execute, select } from '../clone-index/sql';
 
-/** Stores file texts not stored yet, by content hash (the bytes are UTF-8 text by the time they get here). */
+/**
+ * Stores file texts not stored yet, by content hash (the bytes are UTF-8 text by the time they get
+ * here). The texts go in by binary COPY, through a temporary table so that a text another load
+ * stores meanwhile is skipped (on conflict) instead of failing this one: as text[] parameters they
+ * cost an array literal with every quote escaped, built here and parsed again by PostgreSQL.
+ */
 export async function storeContents(tx: Transaction, contents: Map<string, Uint8Array>): Promise<void> {
+  const known = new Set<string>();
   const hashes = [...contents.keys()];
-  for (const [start, end] of chunks(hashes.length, 500)) {
-    const slice = hashes.slice(start, end);
-    await execute(
-      tx,
-      `insert into file_contents (hash, text, byte_size) select * from unnest($1::text[], $2::text[], $3::int[]) on conflict do nothing`,
-      [slice, slice.map((h) => Buffer.from(contents.get(h)!).toString('utf8')), slice.map((h) => contents.get(h)!.byteLength)],
-    );
+  for (const [start, end] of chunks(hashes.length, 20_000)) {
+    const rows = await select<{ hash: string }>(tx, 'select hash from file_contents where hash = any($1::text[])', [hashes.slice(start, end)]);
+    for (const row of rows) known.add(row.hash);
   }
+  const missing = hashes.filter((h) => !known.has(h));
+  if (missing.length === 0) return;
+  await execute(tx, 'create temp table incoming_contents (hash text, text text, byte_size int) on commit drop');
+  await copyRows(tx, 'incoming_contents', ['hash', 'text', 'byte_size'], [
+    { type: 'text', values: missing },
+    { type: 'text', values: missing.map((h) => Buffer.from(contents.get(h)!).toString('utf8')) },
+    { type: 'int4', values: missing.map((h) => contents.get(h)!.byteLength) },
+  ]);
+  await execute(tx, 'insert into file_contents (hash, text, byte_size) select * from incoming_contents on conflict do nothing');
+  await execute(tx, 'drop table incoming_contents');
 }
 
 /** The analysis id of each content hash already analyzed under the options key. */
@@ -81,14 +94,15 @@ export async function storeAnalyses(
       values.forEach((v, i) => columns[i].push(v));
     });
   }
-  for (const [start, end] of chunks(columns[0].length, 20_000)) {
-    await execute(
-      tx,
-      `insert into fragments (analysis_id, ordinal, name, kind, start_line, start_column, end_line, end_column, tokens, token_start, token_end, raw_hash, normalized_hash, set_id)
-       select * from unnest($1::int[], $2::int[], $3::text[], $4::text[], $5::int[], $6::int[], $7::int[], $8::int[], $9::int[], $10::int[], $11::int[], $12::text[], $13::text[], $14::int[])`,
-      columns.map((c) => c.slice(start, end)),
-    );
-  }
+  const [analysisId, ordinal, name, kind, startLine, startColumn, endLine, endColumn, tokens, tokenStart, tokenEnd, rawHash, normalizedHash, setId] = columns;
+  const int = (values: unknown[]) => ({ type: 'int4' as const, values: values as number[] });
+  const text = (values: unknown[]) => ({ type: 'text' as const, values: values as string[] });
+  await copyRows(
+    tx,
+    'fragments',
+    ['analysis_id', 'ordinal', 'name', 'kind', 'start_line', 'start_column', 'end_line', 'end_column', 'tokens', 'token_start', 'token_end', 'raw_hash', 'normalized_hash', 'set_id'],
+    [int(analysisId), int(ordinal), text(name), text(kind), int(startLine), int(startColumn), int(endLine), int(endColumn), int(tokens), int(tokenStart), int(tokenEnd), text(rawHash), text(normalizedHash), int(setId)],
+  );
 }
 
 /** One file of a snapshot: analyzed (content and analysis), or skipped or failed with the reason. */

@@ -2,6 +2,7 @@ import crypto from 'node:crypto';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { findSimilarSets } from '../../../server/clone-index/find-copies';
+import { dropMirror } from '../../../server/clone-index/mirror';
 import { rebuildIndex } from '../../../server/clone-index/rebuild';
 import { addSets, setHash } from '../../../server/clone-index/sets';
 import { select } from '../../../server/clone-index/sql';
@@ -58,11 +59,14 @@ async function indexedPairs(setIds: number[], sizes: number[], threshold: number
   return out.sort();
 }
 
-async function load(sets: Logical, namespace: string, batchSize: number, chunksOf = sets.length) {
+type ProbePath = 'memory' | 'database';
+
+async function load(sets: Logical, namespace: string, batchSize: number, chunksOf = sets.length, probe: ProbePath = 'memory') {
   const inputs = materialise(sets, namespace);
   const ids: number[] = [];
   for (let start = 0; start < inputs.length; start += chunksOf) {
-    const result = await db().transaction((tx) => addSets(tx, inputs.slice(start, start + chunksOf), { batchSize }));
+    const result = await db().transaction((tx) => addSets(tx, inputs.slice(start, start + chunksOf), { batchSize, probe }));
+    if (result.newSetCount > 0) expect(result.probedIn).toBe(probe);
     ids.push(...result.setIds);
   }
   return ids;
@@ -71,29 +75,108 @@ async function load(sets: Logical, namespace: string, batchSize: number, chunksO
 const ns = () => crypto.randomBytes(5).toString('hex');
 
 describe('addSets', () => {
-  it('stores exactly the pairs brute force finds, at the index threshold and above', async () => {
-    await fc.assert(
-      fc.asyncProperty(logicalSets, fc.constantFrom(0.6, 0.8, 0.95, 1), async (sets, threshold) => {
-        const ids = await load(sets, ns(), 1000);
-        expect(await indexedPairs(ids, sets.map((s) => s.length), threshold)).toEqual(brutePairs(sets, threshold));
-      }),
-      { numRuns: 25 },
-    );
-  });
+  // Both probe paths: in the process's mirror of the index, and through PostgreSQL's prefix table.
+  for (const probe of ['memory', 'database'] as const) {
+    it(`stores exactly the pairs brute force finds, at the index threshold and above (probed in ${probe})`, async () => {
+      await fc.assert(
+        fc.asyncProperty(logicalSets, fc.constantFrom(0.6, 0.8, 0.95, 1), async (sets, threshold) => {
+          const ids = await load(sets, ns(), 1000, sets.length, probe);
+          expect(await indexedPairs(ids, sets.map((s) => s.length), threshold)).toEqual(brutePairs(sets, threshold));
+        }),
+        { numRuns: 25 },
+      );
+    });
 
-  it('gives the same pairs for batch sizes 1, 7 and 1000 and for loads split in three', async () => {
+    it(`gives the same pairs for batch sizes 1, 7 and 1000 and for loads split in three (probed in ${probe})`, async () => {
+      await fc.assert(
+        fc.asyncProperty(logicalSets, async (sets) => {
+          const expected = brutePairs(sets, 0.6);
+          const sizes = sets.map((s) => s.length);
+          for (const batch of [1, 7, 1000]) {
+            expect(await indexedPairs(await load(sets, ns(), batch, sets.length, probe), sizes, 0.6)).toEqual(expected);
+          }
+          const third = Math.max(1, Math.ceil(sets.length / 3));
+          expect(await indexedPairs(await load(sets, ns(), 7, third, probe), sizes, 0.6)).toEqual(expected);
+        }),
+        { numRuns: 10 },
+      );
+    });
+  }
+
+  it('mixes the two probe paths in one index and keeps every pair', async () => {
     await fc.assert(
-      fc.asyncProperty(logicalSets, async (sets) => {
-        const expected = brutePairs(sets, 0.6);
-        const sizes = sets.map((s) => s.length);
-        for (const batch of [1, 7, 1000]) {
-          expect(await indexedPairs(await load(sets, ns(), batch), sizes, 0.6)).toEqual(expected);
-        }
+      fc.asyncProperty(logicalSets, fc.array(fc.boolean(), { minLength: 3, maxLength: 3 }), async (sets, inMemory) => {
+        const namespace = ns();
         const third = Math.max(1, Math.ceil(sets.length / 3));
-        expect(await indexedPairs(await load(sets, ns(), 7, third), sizes, 0.6)).toEqual(expected);
+        const ids: number[] = [];
+        for (let part = 0; part < 3; part++) {
+          const slice = sets.slice(part * third, (part + 1) * third);
+          if (slice.length === 0) continue;
+          const inputs = materialise(slice, namespace);
+          const result = await db().transaction((tx) => addSets(tx, inputs, { probe: inMemory[part] ? 'memory' : 'database' }));
+          ids.push(...result.setIds);
+        }
+        expect(await indexedPairs(ids, sets.map((s) => s.length), 0.6)).toEqual(brutePairs(sets, 0.6));
       }),
       { numRuns: 10 },
     );
+  });
+
+  it('looks up the shingles of a large load in bulk and ranks the known ones as stored', async () => {
+    // over 2,000 distinct shingles a load: the dictionary lookup goes through a temporary table
+    const next = (() => {
+      let seed = 7;
+      return () => (seed = (seed * 48271) % 2147483647) / 2147483647;
+    })();
+    const sets: Logical = Array.from({ length: 400 }, () => [...new Set(Array.from({ length: 20 }, () => Math.floor(next() * 5000)))]);
+    for (let i = 0; i < 100; i++) sets.push([...sets[i].slice(1), 5000 + i]);
+    const ids = await load(sets, ns(), 1000, 250);
+    expect(await indexedPairs(ids, sets.map((s) => s.length), 0.6)).toEqual(brutePairs(sets, 0.6));
+  });
+
+  describe('the mirror of the index', () => {
+    const near = (from: number): Logical => [
+      Array.from({ length: 10 }, (_, i) => from + i),
+      [...Array.from({ length: 9 }, (_, i) => from + i), from + 50],
+    ];
+
+    it('forgets the sets of a load that rolled back, and pairs later loads only with stored sets', async () => {
+      const namespace = ns();
+      const [a] = await load(near(0).slice(0, 1), namespace, 1000);
+      // a load probed in the mirror, then rolled back: its set must not answer later probes
+      const rolledBack = materialise([near(0)[1]], namespace);
+      const tx = await db().transaction();
+      const gone = await addSets(tx, rolledBack, { probe: 'memory' });
+      expect(gone.newPairCount).toBe(1);
+      await tx.rollback();
+      const ids = await load([near(0)[1], [...near(0)[1], 77]], namespace, 1000);
+      expect(ids[0]).not.toBe(gone.setIds[0]);
+      expect(await indexedPairs([a, ...ids], [10, 10, 11], 0.6)).toEqual(brutePairs([near(0)[0], near(0)[1], [...near(0)[1], 77]], 0.6));
+    });
+
+    it('catches up with sets another process stored, and reads everything anew after a rebuild', async () => {
+      const namespace = ns();
+      const [a] = await load(near(100).slice(0, 1), namespace, 1000, 1, 'memory');
+      // another process: writes through PostgreSQL alone, so this process's mirror falls behind
+      const [b] = await load([near(100)[1]], namespace, 1000, 1, 'database');
+      const [c] = await load([[...near(100)[1], 160]], namespace, 1000, 1, 'memory');
+      const sets = [near(100)[0], near(100)[1], [...near(100)[1], 160]];
+      expect(await indexedPairs([a, b, c], [10, 10, 11], 0.6)).toEqual(brutePairs(sets, 0.6));
+      await rebuildIndex();
+      const [d] = await load([[...near(100)[0], 161]], namespace, 1000, 1, 'memory');
+      expect(await indexedPairs([a, b, c, d], [10, 10, 11, 11], 0.6)).toEqual(brutePairs([...sets, [...near(100)[0], 161]], 0.6));
+    });
+
+    it('fills a cold mirror from the database (a process that has just started)', async () => {
+      const namespace = ns();
+      const sets = [...near(200), ...near(300)];
+      const first = await load(sets.slice(0, 2), namespace, 1000, 2, 'database');
+      dropMirror();
+      const rest = await load(sets.slice(2), namespace, 1000, 1, 'memory');
+      const again = await load([[...near(200)[0], 260], [...near(300)[1], 360]], namespace, 1000, 2, 'memory');
+      const all = [...sets, [...near(200)[0], 260], [...near(300)[1], 360]];
+      expect(await indexedPairs([...first, ...rest, ...again], all.map((s) => s.length), 0.6)).toEqual(brutePairs(all, 0.6));
+    });
   });
 
   it('stores a set seen before once, and adds nothing when it comes again', async () => {
