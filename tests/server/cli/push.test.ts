@@ -138,6 +138,7 @@ describe('doublet push against the real server', () => {
       [['--server', 'ftp://doublet.example', '--repository', String(repository.id), '--label', 'v9', folder], { DOUBLET_TOKEN: token }, /http:\/\/ or https:\/\//],
       [['--server', base, '--repository', String(repository.id), '--label', 'v9', '--colour', folder], { DOUBLET_TOKEN: token }, /Unknown option/],
       [['--server', base, '--repository', String(repository.id), '--label', 'v9', '--wait', '--no-wait', folder], { DOUBLET_TOKEN: token }, /exclude each other/],
+      [['--server', base, '--label', 'v9', '--format', 'xml', folder], { DOUBLET_TOKEN: token }, /--format must be text, json or sarif \(got "xml"\)/],
     ];
     for (const [args, env, message] of cases) {
       const result = await push(args, env);
@@ -163,9 +164,16 @@ describe('doublet push against the real server', () => {
       const first = await push(['--server', base, '--label', 'v1', path.join(RELEASES, 'v1')], { DOUBLET_TOKEN: ownToken });
       expect(first.code, first.stderr).toBe(PUSH_EXIT.ok);
       expect(first.stdout).toMatch(new RegExp(`^${own.name} v1: `, 'm'));
-      // v2 fixes the pricing rule in one copy only: that class drifts.
+      // v2 fixes the pricing rule in one copy only: that class drifts. The checkout also gets a
+      // renamed copy of summariseInvoice (billing/tariff.js lines 15–24) at lines 4–13 of a new
+      // file whose name needs percent-encoding: a new class.
       const checkout = path.join(work, 'checkout-v2');
       fs.cpSync(path.join(RELEASES, 'v2'), checkout, { recursive: true });
+      const tariff = fs.readFileSync(path.join(checkout, 'billing', 'tariff.js'), 'utf8').split('\n');
+      expect(tariff[14]).toMatch(/^export function summariseInvoice\(/);
+      const copy = tariff.slice(14, 24).join('\n').replace('summariseInvoice', 'customerTotals');
+      fs.mkdirSync(path.join(checkout, 'reports'));
+      fs.writeFileSync(path.join(checkout, 'reports', 'customer totals.js'), `// Customer totals for the monthly statement.\n// (Brackenfold Rail Freight.)\n\n${copy}\n`);
       const file = path.join(work, 'doublet.sarif');
       const second = await push(['--server', base, '--label', 'v2', '--format', 'sarif', '--out', file, checkout], { DOUBLET_TOKEN: ownToken });
       expect(second.code, second.stderr).toBe(PUSH_EXIT.ok);
@@ -196,6 +204,12 @@ describe('doublet push against the real server', () => {
       });
       const drifted = run.results.find((r) => r.ruleId === 'drifted-clone-class');
       expect(drifted?.locations?.map((l) => l.physicalLocation.artifactLocation.uri)).toContain('billing/tariff.js');
+      const planted = run.results.find((r) => r.ruleId === 'new-clone-class' && r.message.text.includes('customerTotals'));
+      const where = (planted?.locations ?? []).map((l) => ({ uri: l.physicalLocation.artifactLocation.uri, ...l.physicalLocation.region, name: l.message?.text }));
+      expect(where.sort((a, b) => a.uri.localeCompare(b.uri))).toEqual([
+        { uri: 'billing/tariff.js', startLine: 15, endLine: 24, name: 'summariseInvoice' },
+        { uri: 'reports/customer%20totals.js', startLine: 4, endLine: 13, name: 'customerTotals' },
+      ]);
       for (const result of run.results) {
         expect(result.level).toBe('warning');
         expect(result.message.text).toMatch(/near copies, similarity [\d.–]+, \d+ tokens: /);
