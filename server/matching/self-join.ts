@@ -60,12 +60,13 @@ export function selfJoinByPrefix(
   // Entries are 4 ids wide, 8 with the signature (aligned either way).
   const stride = useBitmap ? ENTRY : SIGNATURE;
   const entries = new Int32Array(stride * listStart[vocabulary]);
-  // Lists hold processed sets only: [listHead[w], listEnd[w]). Each set is appended after its
+  // Lists hold processed sets only: entries [bounds[2w], bounds[2w + 1]) (head and end side by
+  // side, so a probe pays one cache miss per id for both). Each set is appended after its
   // probe, at the tails of lists the probe has just read (its short prefix lies within its
   // probing prefix), so the writes mostly hit the cache; a list with nothing live is passed
   // over without reading its entries.
-  const listEnd = listStart.slice(0, vocabulary);
-  const listHead = listStart.slice(0, vocabulary);
+  const bounds = new Int32Array(2 * vocabulary);
+  for (let w = 0; w < vocabulary; w++) bounds[2 * w] = bounds[2 * w + 1] = listStart[w];
   // Per-candidate state interleaved, one 32-byte slot per set (count, last x position, last y
   // position, start and size of y), so a list entry costs one cache miss, not three, and the
   // verification finds y without reading `start`; reset through the touched list.
@@ -93,11 +94,13 @@ export function selfJoinByPrefix(
     for (let i = 0; i < probe; i++) {
       const w = data[x0 + i];
       if (usePosition) while (newUpTo >= lower && required[newUpTo - lower] > sizeX - i) newUpTo--;
-      const end = stride * listEnd[w];
-      let e = stride * listHead[w];
-      if (e === end) continue;
-      while (e < end && entries[e + SIZE] < lower) e += stride;
-      listHead[w] = e / stride;
+      const last = bounds[2 * w + 1];
+      let head = bounds[2 * w];
+      if (head === last) continue;
+      while (head < last && entries[stride * head + SIZE] < lower) head++;
+      bounds[2 * w] = head;
+      const end = stride * last;
+      let e = stride * head;
       for (; e < end; e += stride) {
         const y = entries[e + SET];
         const sizeY = entries[e + SIZE];
@@ -151,7 +154,7 @@ export function selfJoinByPrefix(
     // Index x with its short prefix |x| − α(x, x) + 1 (α(x, x) is required[|x| − lower]).
     const indexPrefix = sizeX - required[sizeX - lower] + 1;
     for (let i = 0; i < indexPrefix; i++) {
-      const e = stride * listEnd[data[x0 + i]]++;
+      const e = stride * bounds[2 * data[x0 + i] + 1]++;
       entries[e + SIZE] = sizeX;
       entries[e + SET] = k;
       entries[e + POSITION] = i;
