@@ -4,28 +4,32 @@ import os from 'node:os';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
 import type { RepositoryDTO } from '../../shared/api/repositories';
-import type { SnapshotAnswerDTO, SnapshotDTO } from '../../shared/api/snapshots';
+import type { CloneClassDetailDTO, CloneClassPageDTO, SnapshotAnswerDTO, SnapshotDTO } from '../../shared/api/snapshots';
+import type { CurrentApiTokenDTO } from '../../shared/api/tokens';
 import { packFolder } from '../ingest/pack';
 import { exceedsBudget, parseBudget, type CloneBudget } from '../reports/budget';
+import { SARIF_STATUSES, snapshotSarif } from '../reports/snapshot-sarif';
 import { processIo, type CommandIo } from './command';
 
-const USAGE = `usage: doublet push --server URL --repository ID --label LABEL [--token TOKEN]
-                    [--budget R] [--wait | --no-wait] [--timeout MINUTES] [--format text|json] [--out FILE] [FOLDER]
+const USAGE = `usage: doublet push --server URL --label LABEL [--token TOKEN] [--repository ID]
+                    [--budget R] [--wait | --no-wait] [--timeout MINUTES] [--format text|json|sarif] [--out FILE] [FOLDER]
 
 Packs FOLDER (default: the current folder) as a tar.gz, leaving out .git, symbolic links, the
 folders the analyzers never read (node_modules, dist, vendor…) and the repository's ignore list;
-uploads it to the Doublet server as a snapshot of repository ID labelled LABEL; waits for the
+uploads it to the Doublet server as a snapshot of the token's repository labelled LABEL; waits for the
 load, printing its progress on stderr; then prints the clone ratio, the new and drifted classes
 and the budget verdict.
   --server URL      the Doublet server (or DOUBLET_SERVER)
-  --repository ID   the repository's id, as in its page's address (or DOUBLET_REPOSITORY)
+  --repository ID   the repository's id, as in its page's address (or DOUBLET_REPOSITORY);
+                    optional: the token names its repository
   --token TOKEN     an API token of that repository (better: the DOUBLET_TOKEN environment
                     variable, which stays out of process lists and CI logs)
   --budget R        judge the release against R (0.05 or 5%) instead of the repository's budget
   --wait            wait for the load (the default)
   --no-wait         exit 0 once the server has accepted the upload
   --timeout M       give up waiting after M minutes (default 60)
-  --format F        text (default) or json (the snapshot and the verdict)
+  --format F        text (default), json (the snapshot and the verdict) or sarif (a SARIF 2.1.0
+                    log of the new and drifted clone classes, for code-scanning tools)
   --out FILE        write the summary to FILE instead of stdout
 Exit codes: 0 loaded and within the budget (or no budget), 1 loaded but over the budget,
 2 anything else (bad options, refused token, upload refused, load failed, timeout), with the
@@ -133,6 +137,31 @@ function progressLine(io: CommandIo, snapshot: SnapshotDTO, last: { text: string
   io.err(io.errIsTTY ? `\r${text}\x1b[K` : `${text}\n`);
 }
 
+/** At most this many classes go into a SARIF log (one detail request each); the rest are counted. */
+export const MAX_SARIF_CLASSES = 500;
+const CLASS_PAGE_SIZE = 200;
+
+/**
+ * The snapshot's new and drifted classes with their members (paths and lines), largest first, at
+ * most MAX_SARIF_CLASSES in all, through the routes a read token may use.
+ */
+async function reviewClasses(server: Server, snapshotId: number): Promise<{ classes: CloneClassDetailDTO[]; omitted: number }> {
+  const classes: CloneClassDetailDTO[] = [];
+  let total = 0;
+  for (const status of Object.keys(SARIF_STATUSES)) {
+    for (let page = 1; ; page++) {
+      const query = new URLSearchParams({ status, sort: 'tokens', order: 'desc', page: String(page), pageSize: String(CLASS_PAGE_SIZE) });
+      const answer = await server.json<CloneClassPageDTO>('GET', `/snapshots/${snapshotId}/classes?${query}`, 'Reading the clone classes');
+      if (page === 1) total += answer.total;
+      for (const summary of answer.classes.slice(0, MAX_SARIF_CLASSES - classes.length)) {
+        classes.push(await server.json<CloneClassDetailDTO>('GET', `/clone-classes/${summary.id}`, 'Reading a clone class'));
+      }
+      if (classes.length >= MAX_SARIF_CLASSES || answer.classes.length < CLASS_PAGE_SIZE || page * CLASS_PAGE_SIZE >= answer.total) break;
+    }
+  }
+  return { classes, omitted: total - classes.length };
+}
+
 /** `doublet push`: pack a folder, upload it as a snapshot, wait for it, judge it against the budget. */
 export async function run(args: string[], io: CommandIo = processIo()): Promise<number> {
   let workDir: string | undefined;
@@ -162,26 +191,27 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
     const repositoryText = values.repository ?? process.env.DOUBLET_REPOSITORY;
     const token = values.token ?? process.env.DOUBLET_TOKEN;
     if (!serverText) throw new PushError('--server (or DOUBLET_SERVER) is required');
-    if (!repositoryText) throw new PushError('--repository (or DOUBLET_REPOSITORY) is required');
     if (!values.label?.trim()) throw new PushError('--label is required: the release name, e.g. the tag or the commit');
     if (!token) throw new PushError('an API token is required: set DOUBLET_TOKEN (or pass --token)');
     if (positionals.length > 1) throw new PushError('give at most one folder');
     if (values.wait && values['no-wait']) throw new PushError('--wait and --no-wait exclude each other');
     const format = values.format ?? 'text';
-    if (format !== 'text' && format !== 'json') throw new PushError(`--format must be text or json (got "${format}")`);
+    if (format !== 'text' && format !== 'json' && format !== 'sarif') throw new PushError(`--format must be text, json or sarif (got "${format}")`);
     let budgetOverride: CloneBudget | undefined;
     try {
       budgetOverride = values.budget === undefined ? undefined : parseBudget(values.budget);
     } catch (error) {
       throw new PushError(`--budget: ${(error as Error).message}`);
     }
-    const repositoryId = positiveInteger(repositoryText, '--repository', 2_147_483_647);
+    const givenRepositoryId = repositoryText === undefined ? undefined : positiveInteger(repositoryText, '--repository', 2_147_483_647);
     const timeoutMs = positiveInteger(values.timeout ?? '60', '--timeout', 24 * 60) * 60_000;
     const folder = path.resolve(positionals[0] ?? '.');
     if (!(await stat(folder).catch(() => undefined))?.isDirectory()) throw new PushError(`${positionals[0] ?? '.'} is not a folder`);
     const server = new Server(serverUrl(serverText), token);
 
-    // 1. The repository: its ignore list (left out of the archive) and budget.
+    // 1. The repository (the token's own unless one is named): its ignore list (left out of the archive) and budget.
+    const repositoryId =
+      givenRepositoryId ?? (await server.json<CurrentApiTokenDTO>('GET', '/tokens/current', 'Finding the token\'s repository')).repository.id;
     const repository = await server.json<RepositoryDTO>('GET', `/repositories/${repositoryId}`, 'Reading the repository');
 
     // 2. Pack.
@@ -218,10 +248,17 @@ export async function run(args: string[], io: CommandIo = processIo()): Promise<
     // 5. Summary and verdict.
     const budget = budgetOverride ?? (repository.cloneBudget === null ? null : parseBudget(String(repository.cloneBudget)));
     const verdict = verdictOf(snapshot, budget);
-    const output =
-      format === 'json'
-        ? `${JSON.stringify({ repository: { id: repository.id, name: repository.name }, snapshot, budget: budget?.text ?? null, verdict, url: link }, null, 2)}\n`
-        : summaryText(snapshot, repository, budget, link);
+    let output: string;
+    if (format === 'sarif') {
+      const { classes, omitted } = await reviewClasses(server, snapshot.id);
+      if (omitted > 0) io.err(`the SARIF log holds the first ${classes.length} new and drifted classes; ${omitted} more are on ${link}\n`);
+      const log = snapshotSarif({ repository, snapshot, classes, budget: budget?.text ?? null, verdict, url: link, omittedClassCount: omitted });
+      output = `${JSON.stringify(log, null, 2)}\n`;
+    } else if (format === 'json') {
+      output = `${JSON.stringify({ repository: { id: repository.id, name: repository.name }, snapshot, budget: budget?.text ?? null, verdict, url: link }, null, 2)}\n`;
+    } else {
+      output = summaryText(snapshot, repository, budget, link);
+    }
     if (values.out) await writeFile(values.out, output);
     else io.out(output);
     return verdict === 'over' ? PUSH_EXIT.overBudget : PUSH_EXIT.ok;

@@ -1,5 +1,8 @@
 import type { CloneReport, ReportFragment } from '../../shared/api/clone-report';
 import { fragmentIndex, similarityRange } from './format';
+import { relativeUri, SARIF_SCHEMA, SARIF_VERSION } from './sarif-log';
+
+export { SARIF_SCHEMA, SARIF_VERSION } from './sarif-log';
 
 /** Options of toSarif. */
 export interface SarifOptions {
@@ -7,15 +10,12 @@ export interface SarifOptions {
   toolVersion?: string;
 }
 
-/** SARIF 2.1.0 identifiers (from the OASIS standard). */
-export const SARIF_VERSION = '2.1.0';
-export const SARIF_SCHEMA = 'https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/sarif-schema-2.1.0.json';
 /** The one rule every result belongs to. */
 export const CLONE_RULE_ID = 'clone-class-member';
 
 function physicalLocation(f: ReportFragment) {
   return {
-    artifactLocation: { uri: f.file.split('/').map(encodeURIComponent).join('/'), uriBaseId: 'SRCROOT' },
+    artifactLocation: { uri: relativeUri(f.file), uriBaseId: 'SRCROOT' },
     region: { startLine: f.startLine, endLine: f.endLine },
   };
 }

@@ -1,16 +1,37 @@
-import { apiTokenParamsSchema, createApiTokenSchema, type ApiTokenListDTO, type CreatedApiTokenDTO } from '../../shared/api/tokens';
+import { apiTokenParamsSchema, createApiTokenSchema, type ApiTokenListDTO, type CreatedApiTokenDTO, type CurrentApiTokenDTO } from '../../shared/api/tokens';
 import { currentUser } from '../auth/current-user';
 import { createApiToken, revokeApiToken } from '../commands/apiTokens';
-import { found } from '../errors';
+import { found, HttpError } from '../errors';
 import { authorize } from '../policies';
+import { tokenScopeOf } from '../policies/api-tokens';
 import { presentApiToken } from '../presenters/apiToken';
 import { findApiToken, findApiTokenRow, listApiTokens } from '../queries/apiTokens';
 import { findRepository } from '../queries/repositories';
 import { defineRoutes } from './define';
 import { parse } from './validate';
 
-/** /api/tokens: leads create, list and revoke their organisation's repository-scoped API tokens. */
+/**
+ * /api/tokens: leads create, list and revoke their organisation's repository-scoped API tokens;
+ * a token asks which repository it belongs to.
+ */
 export const apiTokenRoutes = defineRoutes('/tokens', [
+  {
+    method: 'get',
+    path: '/current',
+    guard: 'repositories.read',
+    token: 'read',
+    handler: async (req, res) => {
+      const actor = currentUser(req);
+      const scope = tokenScopeOf(actor);
+      // A person signed in with a session has no current token: nothing to name.
+      if (!scope) throw new HttpError(404, 'not_found', 'This request was not made with an API token: GET /api/tokens/current answers Bearer requests only.');
+      const repository = found(await findRepository(actor.organisationId, scope.repositoryId), 'Repository');
+      authorize(actor, 'repositories.read', repository);
+      const row = found(await findApiTokenRow(actor.organisationId, scope.tokenId), 'API token');
+      const answer: CurrentApiTokenDTO = { id: row.id, name: row.name, repository: { id: repository.id, name: repository.name } };
+      res.json(answer);
+    },
+  },
   {
     method: 'get',
     path: '/',

@@ -72,3 +72,13 @@ export interface CreatedApiTokenDTO {
 export interface ApiTokenListDTO {
   apiTokens: ApiTokenDTO[];
 }
+
+/**
+ * Answer of GET /api/tokens/current: the repository the calling API token is scoped to, so a CI
+ * job (`doublet push`) needs only the token, not the repository's id as well.
+ */
+export interface CurrentApiTokenDTO {
+  id: number;
+  name: string;
+  repository: { id: number; name: string };
+}

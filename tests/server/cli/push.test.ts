@@ -4,12 +4,16 @@ import type { Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
+import schema from '@microsoft/jest-sarif/lib/schemas/sarif-2.1.0-rtm.5.json' with { type: 'json' };
+import Ajv from 'ajv-draft-04';
+import addFormats from 'ajv-formats';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../../server/app';
 import { PUSH_EXIT, run } from '../../../server/cli/push';
 import { select } from '../../../server/clone-index/sql';
 import { projectRoot } from '../../../server/config';
 import type { Repository } from '../../../server/models/Repository';
+import type { SarifLog } from '../../../server/reports/sarif-log';
 import type { CreatedApiTokenDTO } from '../../../shared/api/tokens';
 import { buildRepository, buildTeam, RELEASES, signedInAgent, useDatabase, useMail, type Agent } from '../../support';
 import { captureIo } from './io';
@@ -134,6 +138,7 @@ describe('doublet push against the real server', () => {
       [['--server', 'ftp://doublet.example', '--repository', String(repository.id), '--label', 'v9', folder], { DOUBLET_TOKEN: token }, /http:\/\/ or https:\/\//],
       [['--server', base, '--repository', String(repository.id), '--label', 'v9', '--colour', folder], { DOUBLET_TOKEN: token }, /Unknown option/],
       [['--server', base, '--repository', String(repository.id), '--label', 'v9', '--wait', '--no-wait', folder], { DOUBLET_TOKEN: token }, /exclude each other/],
+      [['--server', base, '--label', 'v9', '--format', 'xml', folder], { DOUBLET_TOKEN: token }, /--format must be text, json or sarif \(got "xml"\)/],
     ];
     for (const [args, env, message] of cases) {
       const result = await push(args, env);
@@ -149,4 +154,80 @@ describe('doublet push against the real server', () => {
     const after = await select<{ n: number }>(undefined, 'select count(*)::int as n from snapshots where repository_id = $1', [repository.id]);
     expect(after).toEqual(before);
   }, 120_000);
+
+  it('finds the repository from the token alone, and writes the new and drifted classes as a SARIF 2.1.0 log that validates and points at the real lines', async () => {
+    const own = await buildRepository({ organisationId: repository.organisationId });
+    const ownToken = ((await lead.post('/api/tokens').send({ name: 'CI push, token only', repositoryId: own.id }).expect(201)).body as CreatedApiTokenDTO).token;
+    const saved = process.env.DOUBLET_REPOSITORY;
+    delete process.env.DOUBLET_REPOSITORY;
+    try {
+      const first = await push(['--server', base, '--label', 'v1', path.join(RELEASES, 'v1')], { DOUBLET_TOKEN: ownToken });
+      expect(first.code, first.stderr).toBe(PUSH_EXIT.ok);
+      expect(first.stdout).toMatch(new RegExp(`^${own.name} v1: `, 'm'));
+      // v2 fixes the pricing rule in one copy only: that class drifts. The checkout also gets a
+      // renamed copy of summariseInvoice (billing/tariff.js lines 15–24) at lines 4–13 of a new
+      // file whose name needs percent-encoding: a new class.
+      const checkout = path.join(work, 'checkout-v2');
+      fs.cpSync(path.join(RELEASES, 'v2'), checkout, { recursive: true });
+      const tariff = fs.readFileSync(path.join(checkout, 'billing', 'tariff.js'), 'utf8').split('\n');
+      expect(tariff[14]).toMatch(/^export function summariseInvoice\(/);
+      const copy = tariff.slice(14, 24).join('\n').replace('summariseInvoice', 'customerTotals');
+      fs.mkdirSync(path.join(checkout, 'reports'));
+      fs.writeFileSync(path.join(checkout, 'reports', 'customer totals.js'), `// Customer totals for the monthly statement.\n// (Brackenfold Rail Freight.)\n\n${copy}\n`);
+      const file = path.join(work, 'doublet.sarif');
+      const second = await push(['--server', base, '--label', 'v2', '--format', 'sarif', '--out', file, checkout], { DOUBLET_TOKEN: ownToken });
+      expect(second.code, second.stderr).toBe(PUSH_EXIT.ok);
+      expect(second.stdout).toBe('');
+      const log = JSON.parse(fs.readFileSync(file, 'utf8')) as SarifLog;
+
+      // The official SARIF 2.1.0 JSON schema (rtm.5, as shipped by the npm package @microsoft/jest-sarif),
+      // checked with ajv; it is draft-04, and one of its patterns is not valid in unicode mode.
+      const ajv = new Ajv({ allErrors: true, strict: false, unicodeRegExp: false });
+      addFormats(ajv);
+      const validate = ajv.compile(schema);
+      expect(validate(log), JSON.stringify(validate.errors)).toBe(true);
+
+      const [run] = log.runs;
+      expect(run.tool.driver.name).toBe('Doublet');
+      expect(run.tool.driver.rules!.map((r) => r.id)).toEqual(['new-clone-class', 'drifted-clone-class']);
+      expect(run.properties).toMatchObject({ verdict: 'none', budget: null, snapshot: { label: 'v2' } });
+      const [snapshot] = await select<{ id: number }>(undefined, 'select id from snapshots where repository_id = $1 and label = $2', [own.id, 'v2']);
+      const counts = await select<{ status: string; n: number }>(
+        undefined,
+        `select status, count(*)::int as n from clone_classes where snapshot_id = $1 and status in ('new', 'drifted') group by status`,
+        [snapshot.id],
+      );
+      const byRule = (rule: string) => run.results.filter((r) => r.ruleId === rule).length;
+      expect({ new: byRule('new-clone-class'), drifted: byRule('drifted-clone-class') }).toEqual({
+        new: counts.find((c) => c.status === 'new')?.n ?? 0,
+        drifted: counts.find((c) => c.status === 'drifted')?.n ?? 0,
+      });
+      const drifted = run.results.find((r) => r.ruleId === 'drifted-clone-class');
+      expect(drifted?.locations?.map((l) => l.physicalLocation.artifactLocation.uri)).toContain('billing/tariff.js');
+      const planted = run.results.find((r) => r.ruleId === 'new-clone-class' && r.message.text.includes('customerTotals'));
+      const where = (planted?.locations ?? []).map((l) => ({ uri: l.physicalLocation.artifactLocation.uri, ...l.physicalLocation.region, name: l.message?.text }));
+      expect(where.sort((a, b) => a.uri.localeCompare(b.uri))).toEqual([
+        { uri: 'billing/tariff.js', startLine: 15, endLine: 24, name: 'summariseInvoice' },
+        { uri: 'reports/customer%20totals.js', startLine: 4, endLine: 13, name: 'customerTotals' },
+      ]);
+      for (const result of run.results) {
+        expect(result.level).toBe('warning');
+        expect(result.message.text).toMatch(/near copies, similarity [\d.–]+, \d+ tokens: /);
+        for (const location of result.locations ?? []) {
+          const { artifactLocation, region } = location.physicalLocation;
+          expect(artifactLocation.uriBaseId).toBe('%SRCROOT%');
+          // The member's real file in the pushed folder, its function starting on startLine and ending by endLine.
+          const lines = fs.readFileSync(path.join(checkout, decodeURIComponent(artifactLocation.uri)), 'utf8').split('\n');
+          expect(region!.endLine!).toBeLessThanOrEqual(lines.length);
+          expect(region!.startLine).toBeLessThanOrEqual(region!.endLine!);
+          expect(lines[region!.startLine - 1], `${artifactLocation.uri}:${region!.startLine}`).toContain(location.message!.text);
+          // Names and places only: no line of the member's code is in the log.
+          const body = lines.slice(region!.startLine, region!.endLine).map((l) => l.trim()).filter((l) => l.length > 20);
+          for (const line of body) expect(JSON.stringify(log)).not.toContain(line);
+        }
+      }
+    } finally {
+      if (saved !== undefined) process.env.DOUBLET_REPOSITORY = saved;
+    }
+  }, 180_000);
 });

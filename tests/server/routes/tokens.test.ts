@@ -264,6 +264,7 @@ describe('every declared route × an API token', () => {
         'GET /api/snapshots/:id/classes read',
         'GET /api/snapshots/:id/comparison read',
         'GET /api/clone-classes/:id read',
+        'GET /api/tokens/current read',
         'POST /api/repositories/:id/git/import upload',
         'POST /api/repositories/:id/snapshots upload',
       ].sort(),
@@ -290,6 +291,18 @@ describe('every declared route × an API token', () => {
         expect((await send(request(app), 'foreign', true)).status).toBe(404);
         // A signed-in lead uploads to every repository of the organisation.
         expect((await send(lead, 'sibling', false)).status).toBe(202);
+      });
+      continue;
+    }
+    if (label === 'GET /api/tokens/current') {
+      it(`${label}: names the token's own repository to the token, 404 to a signed-in person`, async () => {
+        const own = await request(app).get(route.path).set(bearer(token));
+        expect(own.status, JSON.stringify(own.body)).toBe(200);
+        expect(own.body).toMatchObject({ name: 'Route check', repository: { id: ids.own.repository } });
+        expect(Object.keys(own.body as object).sort()).toEqual(['id', 'name', 'repository']);
+        const person = await lead.get(route.path);
+        expect(person.status).toBe(404);
+        expect(person.body.error.message).toMatch(/not made with an API token/);
       });
       continue;
     }
