@@ -1,10 +1,9 @@
-import { createRequire } from 'node:module';
 import path from 'node:path';
-import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Repository } from '../../server/models/Repository';
 import { buildRepository, buildTeam, useDatabase } from '../support';
 import { SCREENSHOTS, signInThroughForm, startBrowserSession, type BrowserSession } from './browser';
+import { seriousViolations } from './axe';
 
 useDatabase();
 
@@ -22,18 +21,6 @@ afterAll(async () => {
   await session?.close();
 });
 
-// axe-core's bundle, evaluated through the DevTools protocol (the page's CSP forbids inline script).
-const AXE_SOURCE: string = createRequire(import.meta.url)('axe-core').source;
-
-/** The serious and critical axe-core violations of the page as it is now. */
-async function seriousViolations(page: Page): Promise<string[]> {
-  await page.evaluate(AXE_SOURCE);
-  const violations = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run(ctx: Document): Promise<{ violations: Array<{ id: string; impact: string | null; nodes: Array<{ target: string[] }> }> }> } }).axe;
-    return (await axe.run(document)).violations;
-  });
-  return violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.impact} ${v.id} at ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(', ')}`);
-}
 
 /** What a CI job does with the token: a plain HTTP request with the Bearer header and nothing else. */
 function readRepository(token: string): Promise<Response> {

@@ -1,12 +1,11 @@
-import { createRequire } from 'node:module';
 import path from 'node:path';
-import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { select } from '../../server/clone-index/sql';
 import { seedDemoRepositories } from '../../server/commands/seedDemoRepositories';
 import { seedDemoTasks } from '../../server/commands/seedDemoTasks';
 import { buildTeam, useDatabase, useMail } from '../support';
 import { SCREENSHOTS, signInThroughForm, startBrowserSession, type BrowserSession } from './browser';
+import { seriousViolations } from './axe';
 
 useDatabase();
 useMail();
@@ -36,18 +35,6 @@ beforeAll(async () => {
 afterAll(async () => {
   await session?.close();
 });
-
-// axe-core's bundle, evaluated through the DevTools protocol (the page's CSP forbids inline script).
-const AXE_SOURCE: string = createRequire(import.meta.url)('axe-core').source;
-
-async function seriousViolations(page: Page): Promise<string[]> {
-  await page.evaluate(AXE_SOURCE);
-  const violations = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run(ctx: Document): Promise<{ violations: Array<{ id: string; impact: string | null; nodes: Array<{ target: string[] }> }> }> } }).axe;
-    return (await axe.run(document)).violations;
-  });
-  return violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.impact} ${v.id} at ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(', ')}`);
-}
 
 describe("the demo's tasks in Chromium", () => {
   it('shows the engineer a task in progress and one the automatic check closed, naming the snapshot', async () => {

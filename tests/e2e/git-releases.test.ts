@@ -1,5 +1,4 @@
 import fs from 'node:fs';
-import { createRequire } from 'node:module';
 import os from 'node:os';
 import path from 'node:path';
 import type { Page } from 'playwright-core';
@@ -8,6 +7,7 @@ import type { Repository } from '../../server/models/Repository';
 import { buildRepository, buildTeam, useDatabase, useMail } from '../support';
 import { buildReleaseRepository, TARIFF_RELEASES } from '../support/git';
 import { SCREENSHOTS, signInThroughForm, startBrowserSession, type BrowserSession } from './browser';
+import { seriousViolations } from './axe';
 
 useDatabase();
 // The job queue with a worker in this process: the import runs as a git.import job.
@@ -42,18 +42,6 @@ afterAll(async () => {
   fs.rmSync(work, { recursive: true, force: true });
 });
 
-// axe-core's bundle, evaluated through the DevTools protocol (the page's CSP forbids inline script).
-const AXE_SOURCE: string = createRequire(import.meta.url)('axe-core').source;
-
-/** The serious and critical axe-core violations of the page as it is now. */
-async function seriousViolations(page: Page): Promise<string[]> {
-  await page.evaluate(AXE_SOURCE);
-  const violations = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run(ctx: Document): Promise<{ violations: Array<{ id: string; impact: string | null; nodes: Array<{ target: string[] }> }> }> } }).axe;
-    return (await axe.run(document)).violations;
-  });
-  return violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.impact} ${v.id} at ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(', ')}`);
-}
 
 async function openRepository(page: Page, who: keyof typeof team & ('lead' | 'engineer' | 'viewer')) {
   await session.context.clearCookies();

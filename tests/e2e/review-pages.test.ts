@@ -1,5 +1,4 @@
 import fs from 'node:fs';
-import { createRequire } from 'node:module';
 import os from 'node:os';
 import path from 'node:path';
 import type { Page } from 'playwright-core';
@@ -9,12 +8,9 @@ import type { Repository } from '../../server/models/Repository';
 import type { User } from '../../server/models/User';
 import { RELEASES, buildRepository, buildTeam, loadFolder, useDatabase } from '../support';
 import { SCREENSHOTS, signInThroughForm, startBrowserSession, type BrowserSession } from './browser';
+import { seriousViolations } from './axe';
 
 useDatabase();
-
-// axe-core's own bundle, evaluated in the page through the DevTools protocol (so a page's
-// Content-Security-Policy, which forbids inline script, does not stop it).
-const AXE_SOURCE: string = createRequire(import.meta.url)('axe-core').source;
 
 let session: BrowserSession;
 let team: Awaited<ReturnType<typeof buildTeam>>;
@@ -70,25 +66,6 @@ async function pageAs(user: User): Promise<{ page: Page; consoleErrors: string[]
   });
   await signInThroughForm(page, session.baseUrl, user);
   return { page, consoleErrors };
-}
-
-interface AxeViolation {
-  id: string;
-  impact: string | null;
-  help: string;
-  nodes: Array<{ target: string[] }>;
-}
-
-/** The serious and critical axe-core violations of the page as it is now, as short readable lines. */
-async function seriousViolations(page: Page): Promise<string[]> {
-  await page.evaluate(AXE_SOURCE);
-  const violations = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run(ctx: Document): Promise<{ violations: AxeViolation[] }> } }).axe;
-    return (await axe.run(document)).violations;
-  });
-  return violations
-    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.impact} ${v.id}: ${v.help} at ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(', ')}`);
 }
 
 /** Opens the only class of a snapshot with that status (through the snapshot page) and waits until its code is coloured. */

@@ -1,4 +1,3 @@
-import { createRequire } from 'node:module';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -10,6 +9,7 @@ import { startJobs, stopJobs } from '../../server/jobs';
 import type { Repository } from '../../server/models/Repository';
 import { buildRepository, buildTeam, useDatabase, useJobs } from '../support';
 import { SCREENSHOTS, signInThroughForm, startBrowserSession, type BrowserSession } from './browser';
+import { seriousViolations } from './axe';
 
 useDatabase();
 const jobs = useJobs({ work: true });
@@ -18,18 +18,6 @@ let session: BrowserSession;
 let team: Awaited<ReturnType<typeof buildTeam>>;
 let repository: Repository;
 let workDir: string;
-
-// axe-core's bundle, evaluated through the DevTools protocol (the page's CSP forbids inline script).
-const AXE_SOURCE: string = createRequire(import.meta.url)('axe-core').source;
-
-async function seriousViolations(page: Page): Promise<string[]> {
-  await page.evaluate(AXE_SOURCE);
-  const violations = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run(ctx: Document): Promise<{ violations: Array<{ id: string; impact: string | null; nodes: Array<{ target: string[] }> }> }> } }).axe;
-    return (await axe.run(document)).violations;
-  });
-  return violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.impact} ${v.id} at ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(', ')}`);
-}
 
 /**
  * A small invented Brackenfold Rail Freight codebase, zipped in one top folder: wagon and siding
