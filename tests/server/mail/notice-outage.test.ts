@@ -1,6 +1,7 @@
 import type { Express } from 'express';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../../server/app';
+import { select } from '../../../server/clone-index/sql';
 import { db } from '../../../server/db/connection';
 import { startMailCatcher, type MailCatcher } from '../../../server/mail';
 import { OutboxMessage } from '../../../server/models/OutboxMessage';
@@ -27,6 +28,14 @@ async function jobStates(email: string): Promise<Record<string, number>> {
   return Object.fromEntries((rows as { state: string; n: number }[]).map((r) => [r.state, r.n]));
 }
 
+/** Stops whichever catcher is listening now (the file's, or one a test restarted); gives its port. */
+async function stopCatcher(): Promise<number> {
+  const current = restarted ?? mail.catcher;
+  await current.stop();
+  restarted = undefined;
+  return current.port;
+}
+
 async function until(what: string, check: () => Promise<boolean>, timeoutMs = 20_000): Promise<void> {
   const deadline = Date.now() + timeoutMs;
   while (!(await check())) {
@@ -38,8 +47,7 @@ async function until(what: string, check: () => Promise<boolean>, timeoutMs = 20
 describe('a notice while the mail server is down', () => {
   it('waits in its job and arrives once the catcher is back on the same port', { timeout: 120_000 }, async () => {
     const team = await buildTeam();
-    const port = mail.catcher.port;
-    await mail.catcher.stop();
+    const port = await stopCatcher();
 
     // A load over its budget queues a budget notice to the lead.
     const repository = await buildRepository({ organisationId: team.organisation.id, name: 'wagon-ledger', cloneBudget: 0.001 });
@@ -56,5 +64,25 @@ describe('a notice while the mail server is down', () => {
     expect(notice.text).toContain(`/snapshots/${snapshotId}`);
     await until('the job completed', async () => (await jobStates(team.lead.email)).completed === 1);
     expect(await mailTo(team.lead.email)).toHaveLength(1);
+  });
+});
+
+describe('a task assigned while the mail server is down', () => {
+  it('is mailed to the assignee once the mail server is back', { timeout: 120_000 }, async () => {
+    const team = await buildTeam();
+    const repository = await buildRepository({ organisationId: team.organisation.id });
+    const { snapshotId } = await loadFolder(repository, `${RELEASES}/v1`, 'v1');
+    const [cloneClass] = await select<{ id: number }>(undefined, 'select id from clone_classes where snapshot_id = $1 order by ordinal limit 1', [snapshotId]);
+    const lead = await signedInAgent(app, team.lead);
+
+    const port = await stopCatcher();
+    await lead.post('/api/tasks').send({ cloneClassId: cloneClass.id, assigneeId: team.engineer.id, title: 'Merge the copies' }).expect(201);
+    await until('a failed delivery attempt', async () => ((await jobStates(team.engineer.email)).retry ?? 0) > 0);
+    expect(await OutboxMessage.count({ where: { organisationId: team.organisation.id } })).toBe(0);
+
+    restarted = await startMailCatcher({ port });
+    const [assigned] = await mailTo(team.engineer.email, 1, 30_000);
+    expect(assigned.subject).toBe('Task assigned to you: Merge the copies');
+    expect(assigned.organisationId).toBe(team.organisation.id);
   });
 });
