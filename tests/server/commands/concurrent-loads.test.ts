@@ -6,10 +6,12 @@ import { repositorySettings } from '../../../server/commands/createRepository';
 import { deleteRepository } from '../../../server/commands/deleteRepository';
 import { loadSnapshot } from '../../../server/commands/loadSnapshot';
 import { lockIndex, select } from '../../../server/clone-index/sql';
+import { crossPairsOfLatest } from '../../../server/queries/cross-classes';
 import { db } from '../../../server/db/connection';
+import { lockContents } from '../../../server/queries/files';
 import { readFolder } from '../../../server/ingest';
 import type { Repository } from '../../../server/models/Repository';
-import { buildRepository, describedPairs, RELEASES, useDatabase } from '../../support';
+import { buildOrganisation, buildRepository, describedPairs, RELEASES, useDatabase } from '../../support';
 
 useDatabase();
 
@@ -91,5 +93,39 @@ describe('loads at the same time as other work', () => {
     const alone2 = await load(d, 'v2', v2Again);
     expect(await describedPairs(together1.snapshotId, a.threshold)).toEqual(await describedPairs(alone1.snapshotId, c.threshold));
     expect(await describedPairs(together2.snapshotId, b.threshold)).toEqual(await describedPairs(alone2.snapshotId, d.threshold));
+  }, 120_000);
+
+  it('finds the pairs across two repositories of one organisation loaded at once, as when loaded one after the other', async () => {
+    // Each load stores its pairs with the other repositories' latest snapshots: the last step of an
+    // organisation's loads takes turns, or each would miss the other's new snapshot.
+    const salt = crypto.randomBytes(6).toString('hex');
+    const [together, alone] = await Promise.all([buildOrganisation(), buildOrganisation()]);
+    const [a, b, c, d] = await Promise.all([
+      buildRepository({ organisationId: together.id }),
+      buildRepository({ organisationId: together.id }),
+      buildRepository({ organisationId: alone.id }),
+      buildRepository({ organisationId: alone.id }),
+    ]);
+    const [first, second] = await Promise.all([saltedRelease('v1', `across-a-${salt}`), saltedRelease('v1', `across-b-${salt}`)]);
+    // Hold both loads before their last step (it starts by taking the contents lock shared), then
+    // let them go together, so without the organisation's turn their last steps would overlap.
+    const hold = await db().transaction();
+    await lockContents(hold, 'delete');
+    const deriving = new Set<string>();
+    const loads = Promise.all([
+      load(a, 'v1', first, (phase) => phase === 'deriving' && deriving.add('a')),
+      load(b, 'v1', second, (phase) => phase === 'deriving' && deriving.add('b')),
+    ]);
+    await expect.poll(() => deriving.size, { timeout: 60_000 }).toBe(2);
+    await new Promise((resolve) => setTimeout(resolve, 300));
+    await hold.commit();
+    await loads;
+    await load(c, 'v1', first);
+    await load(d, 'v1', second);
+    const key = (p: { similarity: number; cloneType: number }) => `${p.similarity}:${p.cloneType}`;
+    const atOnce = (await crossPairsOfLatest(undefined, together.id)).map(key).sort();
+    const oneAfterTheOther = (await crossPairsOfLatest(undefined, alone.id)).map(key).sort();
+    expect(oneAfterTheOther.length).toBeGreaterThan(0);
+    expect(atOnce).toEqual(oneAfterTheOther);
   }, 120_000);
 });
