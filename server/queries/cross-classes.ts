@@ -232,7 +232,11 @@ export async function crossClassMembers(crossClassId: number): Promise<{ members
   const indexOf = new Map(members.map((m, i) => [`${m.snapshotFileId}:${m.fragmentId}`, i]));
   const pairs: FragmentPair[] = [];
   const bySnapshot = new Map<number, number[]>();
-  members.forEach((m, i) => bySnapshot.set(m.snapshotId, [...(bySnapshot.get(m.snapshotId) ?? []), i]));
+  members.forEach((m, i) => {
+    const indexes = bySnapshot.get(m.snapshotId);
+    if (indexes) indexes.push(i);
+    else bySnapshot.set(m.snapshotId, [i]);
+  });
   for (const indexes of bySnapshot.values()) {
     const own = indexes.map((i) => members[i]);
     for (const p of await clonePairsWithin(undefined, own, parseThreshold(own[0].threshold))) {
