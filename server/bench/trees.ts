@@ -97,6 +97,7 @@ function pairKeys(report: Report): string[] {
 }
 
 async function emptyImportDatabase() {
+  await ensureDatabaseServer(IMPORT_DATABASE); // starts the local cluster when it is not running
   await dropDatabase(IMPORT_DATABASE);
   await createDatabaseIfMissing(IMPORT_DATABASE);
   const sequelize = connect(await ensureDatabaseServer(IMPORT_DATABASE));
