@@ -29,7 +29,7 @@ export interface AnalyzeFilesOptions extends AnalyzeOptions, SkipOptions {
  */
 export class AnalyzerPool {
   readonly piscina: Piscina;
-  private readonly warmed = new Set<string>();
+  private readonly warming = new Map<string, Promise<void>>();
   private free: number;
   private readonly waiting: Array<() => void> = [];
 
@@ -47,12 +47,18 @@ export class AnalyzerPool {
     });
   }
 
-  /** Loads the analyzers of these languages in the threads, once per language (before any file's clock starts). */
+  /**
+   * Loads the analyzers of these languages in the threads, once per language (before any file's
+   * clock starts); resolves when every one of them is loaded, by this call or an earlier one.
+   */
   async warm(languages: Iterable<string>): Promise<void> {
-    const fresh = [...languages].filter((l) => !this.warmed.has(l));
-    if (fresh.length === 0) return;
-    for (const l of fresh) this.warmed.add(l);
-    await Promise.all(Array.from({ length: this.threads }, () => this.piscina.run({ warm: fresh })));
+    const wanted = [...new Set(languages)];
+    const fresh = wanted.filter((l) => !this.warming.has(l));
+    if (fresh.length > 0) {
+      const loading = Promise.all(Array.from({ length: this.threads }, () => this.piscina.run({ warm: fresh }))).then(() => undefined);
+      for (const l of fresh) this.warming.set(l, loading);
+    }
+    await Promise.all(wanted.map((l) => this.warming.get(l)));
   }
 
   /** Runs `work` once a thread is free (the slot is given back after). */

@@ -136,3 +136,12 @@ export function loadConfig() {
 }
 
 export type Config = ReturnType<typeof loadConfig>;
+
+/**
+ * A page of the app under PUBLIC_URL, for links in mail.
+ *
+ * @example appUrl('/tasks/12') // 'http://localhost:5173/tasks/12'
+ */
+export function appUrl(path: string): string {
+  return `${loadConfig().publicUrl.replace(/\/$/, '')}${path}`;
+}

@@ -16,7 +16,7 @@ async function main() {
   const sequelize = await openDatabase();
   initModels(sequelize);
   await startJobs({ work: true });
-  const queues = jobDefinitions().map((d) => d.queue).join(', ');
+  const queues = (await jobDefinitions()).map((d) => d.queue).join(', ');
   console.log(`Doublet worker ${process.pid} is working: ${queues}.`);
 
   let stopping = false;

@@ -1,4 +1,4 @@
-import { parse, type ParserPlugin } from '@babel/parser';
+import type { ParserPlugin } from '@babel/parser';
 import type { FragmentSpan, ResolvedOptions } from '../fragments';
 import { checkNestingDepth } from '../limits';
 import { emptyTokenStream, pushToken, type TokenClass } from '../tokens';
@@ -137,7 +137,15 @@ function qualify(owner: string | undefined, name: string): string {
   return owner ? `${owner}.${name}` : name;
 }
 
-function parseWithFallback(text: string, plugins: ParserPlugin[], sourceType: 'module' | 'script') {
+type BabelParse = (typeof import('@babel/parser'))['parse'];
+
+/**
+ * The parser, imported on the first parse: a process that only routes files to the analyzer pool
+ * (the command line's import, the web server) never loads it on its main thread.
+ */
+let babelParse: BabelParse | undefined;
+
+function parseWithFallback(parse: BabelParse, text: string, plugins: ParserPlugin[], sourceType: 'module' | 'script') {
   const common = {
     plugins,
     tokens: true,
@@ -161,16 +169,17 @@ function parseWithFallback(text: string, plugins: ParserPlugin[], sourceType: 'm
 }
 
 /** Parses JavaScript-family source and returns its tokens and function spans. */
-export function analyzeWithBabel(
+export async function analyzeWithBabel(
   text: string,
   dialect: { typescript: boolean; jsx: boolean; sourceType: 'module' | 'script' },
   options: ResolvedOptions,
-): LanguageAnalysis {
+): Promise<LanguageAnalysis> {
+  const parse = babelParse ?? (babelParse = (await import('@babel/parser')).parse);
   const plugins: ParserPlugin[] = [];
   if (dialect.typescript) plugins.push('typescript', 'decorators-legacy');
   else plugins.push('decorators-legacy');
   if (dialect.jsx) plugins.push('jsx');
-  const ast = parseWithFallback(text, plugins, dialect.sourceType) as unknown as BabelNode & { tokens: BabelToken[]; errors?: unknown[] };
+  const ast = parseWithFallback(parse, text, plugins, dialect.sourceType) as unknown as BabelNode & { tokens: BabelToken[]; errors?: unknown[] };
 
   const spans: FragmentSpan[] = [];
   const dropped: Array<[number, number]> = [];

@@ -2,7 +2,7 @@ import { Op, type Transaction } from 'sequelize';
 import type { InviteUserInput } from '../../shared/api/invitations';
 import { ROLE_LABELS } from '../../shared/roles';
 import { hashToken, oneTimeToken } from '../auth/tokens';
-import { loadConfig } from '../config';
+import { appUrl } from '../config';
 import { db } from '../db/connection';
 import { ConflictError } from '../errors';
 import { invitationMail, sendMail } from '../mail';
@@ -15,7 +15,7 @@ export const INVITATION_TTL_MS = 7 * 24 * 60 * 60 * 1000;
 
 /** The client route that opens an invitation link. */
 export function invitationLink(token: string): string {
-  return `${loadConfig().publicUrl.replace(/\/$/, '')}/invitations/${token}`;
+  return appUrl(`/invitations/${token}`);
 }
 
 /**
@@ -77,7 +77,7 @@ export async function inviteUser(input: {
           link: invitationLink(token),
           expiresAt: invitation.expiresAt,
           hasAccountElsewhere: existing !== null,
-          signInLink: `${loadConfig().publicUrl.replace(/\/$/, '')}/sign-in`,
+          signInLink: appUrl('/sign-in'),
         }),
       },
       { transaction },

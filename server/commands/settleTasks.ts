@@ -1,7 +1,7 @@
 import type { Transaction } from 'sequelize';
-import { TASK_STATUS_LABELS } from '../../shared/api/tasks';
+import { TASK_STATUS_LABELS } from '../../shared/task-statuses';
 import { sendNotice } from '../mail/notices';
-import { taskAutoChangedNotice } from '../mail/task-notices';
+import { taskAutoChangedNotice, taskUrl } from '../mail/task-notices';
 import {
   autoClosedTasks,
   classMemberKeys,
@@ -15,7 +15,6 @@ import {
   storeClosedMemberKeys,
   type SettledTaskRow,
 } from '../queries/tasks';
-import { taskUrl } from './tasks';
 
 /** What the automatic check did in one load. */
 export interface TaskSettlement {

@@ -2,9 +2,8 @@ import type { Transaction } from 'sequelize';
 import { isLeadMove, mayMoveTask, TASK_STATUS_LABELS, type CreateTaskInput, type TaskCommentDTO, type UpdateTaskInput } from '../../shared/api/tasks';
 import { db } from '../db/connection';
 import { AuthorizationError, ConflictError, ValidationError } from '../errors';
-import { loadConfig } from '../config';
 import { sendNotice } from '../mail/notices';
-import { taskAssignedNotice } from '../mail/task-notices';
+import { taskAssignedNotice, taskUrl } from '../mail/task-notices';
 import type { User } from '../models/User';
 import { allows } from '../policies';
 import type { ClassDetailRow } from '../queries/classes';
@@ -22,11 +21,6 @@ import {
   type TaskChanges,
   type TaskRow,
 } from '../queries/tasks';
-
-/** A task's page under PUBLIC_URL, for the notice mails. */
-export function taskUrl(taskId: number): string {
-  return `${loadConfig().publicUrl.replace(/\/$/, '')}/tasks/${taskId}`;
-}
 
 const NOT_ASSIGNABLE = 'The assignee must be an active engineer, lead or admin of your organisation.';
 

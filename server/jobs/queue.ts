@@ -1,10 +1,10 @@
 import type { ClientBase } from 'pg';
-import PgBoss from 'pg-boss';
+import type PgBoss from 'pg-boss';
 import type { Transaction } from 'sequelize';
 import { loadConfig } from '../config';
 import { connectedUrl } from '../db/connection';
 import { localDatabaseUrl } from '../db/postgres';
-import { jobDefinitions, JOBS, type JobData, type QueueName } from './registry';
+import { jobDefinition, jobDefinitions, QUEUE_NAMES, type JobData, type QueueName } from './registry';
 
 /** How startJobs() runs pg-boss in this process. */
 export interface StartJobsOptions {
@@ -51,7 +51,9 @@ export async function startJobs(options: StartJobsOptions = {}): Promise<void> {
 async function open(options: StartJobsOptions): Promise<Running> {
   const config = loadConfig();
   const schema = options.schema ?? config.jobsSchema;
-  const boss = new PgBoss({
+  // imported here, not at the top: a process that never queues a job never loads pg-boss
+  const { default: PgBossClass } = await import('pg-boss');
+  const boss = new PgBossClass({
     connectionString: options.connectionString ?? connectedUrl() ?? config.externalDatabaseUrl ?? localDatabaseUrl(config.databaseName),
     schema,
     application_name: 'doublet-jobs',
@@ -67,10 +69,9 @@ async function open(options: StartJobsOptions): Promise<Running> {
   // pg-boss reports connection trouble as events; without a listener an 'error' would crash the process.
   boss.on('error', (error) => console.error(`jobs: ${error.message}`));
   await boss.start();
-  const definitions = jobDefinitions();
-  for (const definition of definitions) await boss.createQueue(definition.queue);
+  for (const queue of QUEUE_NAMES) await boss.createQueue(queue);
   if (options.work) {
-    for (const definition of definitions) {
+    for (const definition of await jobDefinitions()) {
       for (let i = 0; i < (definition.workers ?? 1); i++) {
         await boss.work<object>(
           definition.queue,
@@ -133,7 +134,7 @@ export async function send<Q extends QueueName>(queue: Q, data: JobData<Q>, opti
   const current = running!;
   const { transaction, ...sendOptions } = options;
   const id = await current.boss.send(queue, data as object, {
-    ...JOBS[queue].sendOptions,
+    ...(await jobDefinition(queue)).sendOptions,
     ...current.sendOptions[queue],
     ...sendOptions,
     ...(transaction ? { db: inTransaction(transaction) } : {}),

@@ -1,6 +1,6 @@
 import type { Transaction } from 'sequelize';
 import { rolesAllowed } from '../../shared/permissions';
-import { loadConfig } from '../config';
+import { appUrl } from '../config';
 import { db } from '../db/connection';
 import { send } from '../jobs/queue';
 import {
@@ -20,10 +20,6 @@ export const DRIFT_NOTICE_CLASS_LIMIT = 20;
 
 function escapeHtml(value: string): string {
   return value.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
-}
-
-function appUrl(path: string): string {
-  return `${loadConfig().publicUrl.replace(/\/$/, '')}${path}`;
 }
 
 function percent(part: number, whole: number): string {

@@ -1,10 +1,10 @@
 import type { Transaction } from 'sequelize';
-import { NOTICE_LABELS, type NoticeKind } from '../../shared/api/notices';
-import { loadConfig } from '../config';
+import { NOTICE_LABELS, type NoticeKind } from '../../shared/notice-kinds';
+import { appUrl } from '../config';
 import { noticeRecipients, type NoticeRecipientRow } from '../queries/notices';
 import { sendMail } from './send';
 
-export { NOTICE_KINDS, type NoticeKind } from '../../shared/api/notices';
+export { NOTICE_KINDS, type NoticeKind } from '../../shared/notice-kinds';
 
 /** One person a notice goes to, as compose() sees them. */
 export type NoticeRecipient = NoticeRecipientRow;
@@ -26,7 +26,7 @@ export interface Notice {
 
 /** Where a user turns notices off. */
 export function noticeSettingsLink(): string {
-  return `${loadConfig().publicUrl.replace(/\/$/, '')}/account#notices`;
+  return appUrl('/account#notices');
 }
 
 function escapeHtml(value: string): string {

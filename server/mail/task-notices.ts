@@ -1,9 +1,15 @@
+import { appUrl } from '../config';
 import type { NoticeContent, NoticeRecipient } from './notices';
 
 /**
  * The mails of the two task notices, from plain facts, for refactor tasks to pass to sendNotice's
  * compose. Titles are what a lead typed (shown as text, escaped in HTML); never put code in them.
  */
+
+/** A task's page under PUBLIC_URL, for the notice mails. */
+export function taskUrl(taskId: number): string {
+  return appUrl(`/tasks/${taskId}`);
+}
 
 function escapeHtml(value: string): string {
   return value.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);

@@ -1,5 +1,5 @@
 import crypto from 'node:crypto';
-import nodemailer, { type Transporter } from 'nodemailer';
+import type { Transporter } from 'nodemailer';
 import { loadConfig } from '../config';
 
 /** One e-mail as the product writes it. */
@@ -51,9 +51,12 @@ export function mailTarget(): MailTarget {
 // Bounded waits: a mail server that hangs fails the attempt, and the job's retries take over.
 const TIMEOUTS = { connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 30_000 };
 
-function transportFor(target: MailTarget): Transporter {
+async function transportFor(target: MailTarget): Promise<Transporter> {
   const key = JSON.stringify(target);
   if (cached?.key === key) return cached.transport;
+  // imported on the first delivery: processes that only queue mail (the command line) never load it
+  const { default: nodemailer } = await import('nodemailer');
+  if (cached?.key === key) return cached.transport; // another delivery made it meanwhile
   cached?.transport.close();
   const transport =
     'url' in target
@@ -83,7 +86,7 @@ export function newMessageId(): string {
  */
 export async function deliver(mail: OutgoingMail): Promise<void> {
   const { organisationId, messageId, ...message } = mail;
-  await transportFor(mailTarget()).sendMail({
+  await (await transportFor(mailTarget())).sendMail({
     from: loadConfig().mailFrom,
     ...message,
     messageId,

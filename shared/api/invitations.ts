@@ -3,9 +3,9 @@
  * one-time link in the mail lets them set a password and join.
  */
 import { z } from 'zod';
-import { roleSchema, type Role } from '../roles';
+import type { Role } from '../roles';
 import { passwordSchema } from './session';
-import { emailSchema, nameSchema } from './users';
+import { emailSchema, nameSchema, roleSchema } from './users';
 
 /** Body of POST /api/invitations. */
 export const inviteUserSchema = z.object({

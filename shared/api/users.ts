@@ -2,7 +2,15 @@
  * API types and schemas of /api/users: the people of an organisation, their roles, deactivation.
  */
 import { z } from 'zod';
-import { roleSchema } from '../roles';
+import { ROLES } from '../roles';
+
+/**
+ * Validates a role name (request bodies, query strings).
+ *
+ * @example
+ * roleSchema.parse('lead') // 'lead'
+ */
+export const roleSchema = z.enum(ROLES);
 
 /** An e-mail address as the product stores it: trimmed and lower-cased, so sign-in ignores case. */
 export const emailSchema = z
