@@ -12,7 +12,7 @@ export interface RebuildResult {
 }
 
 /**
- * Re-ranks every shingle by its current document frequency (rarest first, ties by id), rewrites
+ * Re-ranks every shingle by its current document frequency (rarest first, ties in their present order), rewrites
  * every stored set in the new order and rewrites the prefix table. Set pairs do not depend on the
  * order and stay. All of it happens in one transaction under the index write lock: loads wait,
  * readers keep seeing the old order (MVCC) until the commit switches everything at once.
@@ -24,7 +24,7 @@ export async function rebuildIndex(): Promise<RebuildResult> {
     await execute(
       tx,
       `create temp table rank_map on commit drop as
-         select s.rank as old_rank, (row_number() over (order by coalesce(d.df, 0), s.id) - 1)::int as new_rank
+         select s.rank as old_rank, (row_number() over (order by coalesce(d.df, 0), s.rank) - 1)::int as new_rank
            from shingles s
            left join (select r, count(*) as df from shingle_sets, unnest(ranks) as r group by r) d on d.r = s.rank`,
     );

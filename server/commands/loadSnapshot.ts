@@ -198,6 +198,8 @@ async function loadRound(
     addSets(tx, fragmentSets, { batchSize: input.batchSize, onProgress: (done, total) => progress('indexing', done, total) }),
   );
   timings.index_store = Math.round(indexed.timings.store);
+  timings.index_dictionary = Math.round(indexed.timings.dictionary);
+  timings.index_prefixes = Math.round(indexed.timings.prefixes);
   timings.index_probe = Math.round(indexed.timings.probe);
   lap('index');
 
