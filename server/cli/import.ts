@@ -1,8 +1,6 @@
 import { stat } from 'node:fs/promises';
-import os from 'node:os';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
-import { AnalyzerPool, languageForPath } from '../../analyzers';
 import { readFolder } from '../ingest/folder';
 import { createRepository, repositorySettings, updateRepository } from '../commands/createRepository';
 import { loadSnapshot } from '../commands/loadSnapshot';
@@ -55,11 +53,8 @@ export function run(args: string[], io: CommandIo = processIo()): Promise<number
     };
     const given = Object.fromEntries(Object.entries(settings).filter(([, v]) => v !== undefined));
 
-    // The analyzer threads start, and load their code, while this thread opens the database and
-    // reads the folder (the import's start-up, on an otherwise idle core).
-    const pool = new AnalyzerPool(os.availableParallelism());
+    await openCliDatabase();
     try {
-      await openCliDatabase();
       const organisation = await resolveOrganisation(values.organisation);
       let repository = await findRepositoryByName(organisation.id, values.repository);
       try {
@@ -72,8 +67,6 @@ export function run(args: string[], io: CommandIo = processIo()): Promise<number
       const started = performance.now();
       const folder = await readFolder(root, { ignore: repository.ignore });
       const readMs = Math.round(performance.now() - started);
-      // the analyzers of the folder's languages load while the load hashes the files and looks them up
-      pool.warm(new Set(folder.files.map((f) => languageForPath(f.path)).filter((l) => l !== undefined))).catch(() => undefined);
       const result = await loadSnapshot({
         repository: repositorySettings(repository),
         label: values.label,
@@ -81,7 +74,7 @@ export function run(args: string[], io: CommandIo = processIo()): Promise<number
         files: folder.files,
         skipped: folder.skipped,
         batchSize: positiveIntegerOption(values['batch-size'], '--batch-size'),
-      }, { pool }).catch((error: unknown) => {
+      }).catch((error: unknown) => {
         if (error instanceof HttpError) throw new InputError(error.message);
         throw error;
       });
@@ -100,7 +93,6 @@ export function run(args: string[], io: CommandIo = processIo()): Promise<number
       // A load over budget or with drifted classes queued its notices: close the queue it opened.
       await stopJobs();
       await disconnect();
-      await pool.close();
     }
   });
 }
