@@ -8,43 +8,22 @@ const LOOKUP_CHUNK = 50_000;
  * New shingles get ranks below every known rank (they are rarer than anything indexed, and no
  * stored set contains them, so no stored array changes order). Among themselves the rarer in this
  * batch comes first. Call under the index write lock.
- *
- * One round trip whatever the number: the texts go in once, by binary COPY with their ordinals and
- * counts, and one statement finds the known ranks, ranks and stores the new shingles, and returns
- * every rank as two integer arrays (as text[] parameters each text would be quoted into an array
- * literal and parsed again, and each returned row would cost an object).
  */
-export async function resolveShingles(tx: Transaction, counts: Map<string, number>): Promise<Map<string, number>> {
-  const texts = [...counts.keys()];
-  const ranks = new Map<string, number>();
-  if (texts.length === 0) return ranks;
-  await execute(tx, 'create temp table incoming_shingles (ordinal int, text text, count int) on commit drop');
-  await copyRows(tx, 'incoming_shingles', ['ordinal', 'text', 'count'], [
-    { type: 'int4', values: Int32Array.from(texts, (_, i) => i) },
-    { type: 'text', values: texts },
-    { type: 'int4', values: Int32Array.from(texts, (t) => counts.get(t)!) },
+export async function resolveShingles(
+  tx: Transaction,
+  counts: Map<string, number>,
+): Promise<Map<string, number>> {
+  const ranks = await lookupManyShingles(tx, [...counts.keys()]);
+  const unknown = [...counts.keys()].filter((s) => !ranks.has(s));
+  if (unknown.length === 0) return ranks;
+  // most frequent first, so it gets the highest of the new ranks; ties by text for determinism
+  unknown.sort((a, b) => counts.get(b)! - counts.get(a)! || (a < b ? -1 : a > b ? 1 : 0));
+  const newRanks = await ranksBelowKnown(tx, unknown.length);
+  await copyRows(tx, 'shingles', ['text', 'rank'], [
+    { type: 'text', values: unknown },
+    { type: 'int4', values: newRanks },
   ]);
-  // new shingles: most frequent first, so it gets the highest of the new ranks; ties in the order given
-  const [row] = await select<{ ordinals: string | null; ranks: string | null }>(
-    tx,
-    `with known as (
-       select i.ordinal, s.rank from incoming_shingles i join shingles s on s.text = i.text
-     ), fresh as (
-       select i.ordinal, i.text,
-              ((select coalesce(min(rank), 0) from shingles) - row_number() over (order by i.count desc, i.ordinal))::int as rank
-         from incoming_shingles i
-        where not exists (select 1 from shingles s where s.text = i.text)
-     ), stored as (
-       insert into shingles (text, rank) select text, rank from fresh
-     )
-     select array_agg(ordinal)::text as ordinals, array_agg(rank)::text as ranks
-       from (select ordinal, rank from known union all select ordinal, rank from fresh) as r`,
-  );
-  await execute(tx, 'drop table incoming_shingles');
-  if (row.ordinals === null) return ranks;
-  const ordinals = parseIntArray(row.ordinals);
-  const found = parseIntArray(row.ranks!);
-  for (let i = 0; i < ordinals.length; i++) ranks.set(texts[ordinals[i]], found[i]);
+  unknown.forEach((s, i) => ranks.set(s, newRanks[i]));
   return ranks;
 }
 
@@ -70,6 +49,36 @@ export async function lookupShingles(tx: Transaction | undefined, texts: string[
     );
     for (const row of rows) ranks.set(row.text, row.rank);
   }
+  return ranks;
+}
+
+/** Lookups of more shingles than this go through a temporary table. */
+const BULK_LOOKUP = 2_000;
+
+/**
+ * lookupShingles for a load's many shingles: the texts go in by binary COPY with their ordinals,
+ * and the ranks of the known ones come back as two integer arrays. As a text[] parameter each
+ * text would be quoted and escaped into an array literal, then parsed again by PostgreSQL, and
+ * each row returned would cost an object.
+ */
+async function lookupManyShingles(tx: Transaction, texts: string[]): Promise<Map<string, number>> {
+  if (texts.length < BULK_LOOKUP) return lookupShingles(tx, texts);
+  await execute(tx, 'create temp table wanted_shingles (ordinal int, text text) on commit drop');
+  await copyRows(tx, 'wanted_shingles', ['ordinal', 'text'], [
+    { type: 'int4', values: Int32Array.from(texts, (_, i) => i) },
+    { type: 'text', values: texts },
+  ]);
+  const [row] = await select<{ ordinals: string | null; ranks: string | null }>(
+    tx,
+    `select array_agg(w.ordinal)::text as ordinals, array_agg(s.rank)::text as ranks
+       from wanted_shingles w join shingles s on s.text = w.text`,
+  );
+  await execute(tx, 'drop table wanted_shingles');
+  const ranks = new Map<string, number>();
+  if (row.ordinals === null) return ranks;
+  const ordinals = parseIntArray(row.ordinals);
+  const found = parseIntArray(row.ranks!);
+  for (let i = 0; i < ordinals.length; i++) ranks.set(texts[ordinals[i]], found[i]);
   return ranks;
 }
 
