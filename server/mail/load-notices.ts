@@ -14,13 +14,10 @@ import {
 } from '../queries/notices';
 import { exceedsBudget, parseBudget } from '../reports/budget';
 import { sendNotice, type NoticeContent, type NoticeRecipient } from './notices';
+import { escapeHtml } from './html';
 
 /** A drift notice lists at most this many classes; the snapshot page has the rest. */
 export const DRIFT_NOTICE_CLASS_LIMIT = 20;
-
-function escapeHtml(value: string): string {
-  return value.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
-}
 
 function percent(part: number, whole: number): string {
   return whole === 0 ? '0.00%' : `${((100 * part) / whole).toFixed(2)}%`;

@@ -3,6 +3,7 @@ import { NOTICE_LABELS, type NoticeKind } from '../../shared/notice-kinds';
 import { appUrl } from '../config';
 import { noticeRecipients, type NoticeRecipientRow } from '../queries/notices';
 import { sendMail } from './send';
+import { escapeHtml } from './html';
 
 export { NOTICE_KINDS, type NoticeKind } from '../../shared/notice-kinds';
 
@@ -27,10 +28,6 @@ export interface Notice {
 /** Where a user turns notices off. */
 export function noticeSettingsLink(): string {
   return appUrl('/account#notices');
-}
-
-function escapeHtml(value: string): string {
-  return value.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 }
 
 /** The line under every notice: why it came and where to turn it off. */

@@ -1,5 +1,6 @@
 import { appUrl } from '../config';
 import type { NoticeContent, NoticeRecipient } from './notices';
+import { escapeHtml } from './html';
 
 /**
  * The mails of the two task notices, from plain facts, for refactor tasks to pass to sendNotice's
@@ -9,10 +10,6 @@ import type { NoticeContent, NoticeRecipient } from './notices';
 /** A task's page under PUBLIC_URL, for the notice mails. */
 export function taskUrl(taskId: number): string {
   return appUrl(`/tasks/${taskId}`);
-}
-
-function escapeHtml(value: string): string {
-  return value.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 }
 
 /** What a task notice says about its task. */

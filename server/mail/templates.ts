@@ -1,8 +1,5 @@
 import type { MailMessage } from './transport';
-
-function escapeHtml(value: string): string {
-  return value.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
-}
+import { escapeHtml } from './html';
 
 /**
  * The invitation mail: who invited whom to which organisation, with the one-time link. When the
