@@ -140,7 +140,7 @@ export type Config = ReturnType<typeof loadConfig>;
 /**
  * A page of the app under PUBLIC_URL, for links in mail.
  *
- * @example appUrl('/tasks/12') // 'http://localhost:5173/tasks/12'
+ * @example appUrl('/tasks/12') // 'http://127.0.0.1:3030/tasks/12' (PUBLIC_URL unset, PORT 3030)
  */
 export function appUrl(path: string): string {
   return `${loadConfig().publicUrl.replace(/\/$/, '')}${path}`;

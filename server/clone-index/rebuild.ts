@@ -12,9 +12,9 @@ export interface RebuildResult {
 }
 
 /**
- * Re-ranks every shingle by its current document frequency (rarest first, ties in their present order), rewrites
- * every stored set in the new order and rewrites the prefix table. Set pairs do not depend on the
- * order and stay. All of it happens in one transaction under the index write lock: loads wait,
+ * Re-ranks every shingle by its current document frequency (rarest first, ties in their present
+ * order), rewrites every stored set in the new order and rewrites the prefix table. Set pairs do
+ * not depend on the order and stay. All of it happens in one transaction under the index write lock: loads wait,
  * readers keep seeing the old order (MVCC) until the commit switches everything at once.
  */
 export async function rebuildIndex(): Promise<RebuildResult> {

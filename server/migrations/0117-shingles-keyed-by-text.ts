@@ -3,8 +3,8 @@ import type { Migration } from '../db/migrate';
 /**
  * The shingle dictionary loses its surrogate id: nothing refers to it (sets store ranks), yet every
  * new shingle paid for a sequence value and a third index. The text becomes the primary key (it was
- * already unique); rank stays unique. A load of a tree of published packages (97k new shingles)
- * wrote its dictionary in about two thirds of the time.
+ * already unique); rank stays unique. Inserting the 97k new shingles of a tree of published
+ * packages took about two thirds of the time in SQL (464 → 317 ms).
  */
 export const up: Migration['up'] = async ({ sequelize }) => {
   await sequelize.query(`
