@@ -4,5 +4,5 @@
  */
 export { startJobs, stopJobs, send, waitingJobs, jobQueue, isWorking, type StartJobsOptions, type SendJobOptions } from './queue';
 export { startEmbedded, stopEmbedded } from './embedded';
-export { QUEUE_NAMES, jobDefinition, jobDefinitions, type QueueName, type JobData } from './registry';
+export { jobDefinitions, type QueueName, type JobData } from './registry';
 export { defineJob, type JobDefinition, type JobContext } from './definition';
